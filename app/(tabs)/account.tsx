@@ -1,0 +1,5 @@
+import { AccountScreen } from '@/screens/account';
+
+export default function AccountRoute() {
+  return <AccountScreen />;
+}

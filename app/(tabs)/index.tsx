@@ -1,0 +1,5 @@
+import { FormulasScreen } from '@/screens/formulas';
+
+export default function FormulasRoute() {
+  return <FormulasScreen />;
+}

@@ -1,0 +1,5 @@
+import { InsectSupplyScreen } from '@/screens/insect-supply';
+
+export default function InsectSupplyRoute() {
+  return <InsectSupplyScreen />;
+}

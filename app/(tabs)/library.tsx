@@ -1,0 +1,5 @@
+import { LibraryScreen } from '@/screens/library';
+
+export default function LibraryRoute() {
+  return <LibraryScreen />;
+}

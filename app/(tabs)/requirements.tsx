@@ -1,0 +1,5 @@
+import { RequirementsScreen } from '@/screens/requirements';
+
+export default function RequirementsRoute() {
+  return <RequirementsScreen />;
+}

@@ -1,0 +1,2 @@
+export * from './organizations';
+export * from './seed-runs';

@@ -1,0 +1,35 @@
+import { eq } from 'drizzle-orm';
+
+import type { Db } from './client';
+import { organizations, seedRuns, type NewOrganizationRow } from './schema';
+
+/**
+ * Demo data: an invented scenario (a cooperative mill, a farm that rears its own larvae, an advisory office).
+ * Each set is applied once, recorded in seed_runs, inside one transaction so a failed seed leaves nothing half-written.
+ */
+const DEMO_ORGANIZATIONS: NewOrganizationRow[] = [
+  { name: 'Tamsby Cooperative Feed Mill', kind: 'feed_mill' },
+  { name: 'Orrin Hollow Larvae Farm', kind: 'farm' },
+  { name: 'Upper Wend Extension Office', kind: 'advisory' },
+];
+
+export type SeedStep = { name: string; apply: (tx: Db) => Promise<void> };
+
+export const DEMO_SEED_STEPS: SeedStep[] = [
+  { name: 'demo-organizations-v1', apply: async (tx) => void (await tx.insert(organizations).values(DEMO_ORGANIZATIONS)) },
+];
+
+/** Applies the seed steps that have not run yet; returns the names applied. */
+export async function seedDemoData(db: Db, steps: SeedStep[] = DEMO_SEED_STEPS): Promise<string[]> {
+  const applied: string[] = [];
+  for (const step of steps) {
+    const done = await db.select().from(seedRuns).where(eq(seedRuns.name, step.name));
+    if (done.length > 0) continue;
+    await db.transaction(async (tx) => {
+      await step.apply(tx as unknown as Db);
+      await tx.insert(seedRuns).values({ name: step.name });
+    });
+    applied.push(step.name);
+  }
+  return applied;
+}

@@ -15,7 +15,7 @@ const envSchema = z.object({
 export type Env = z.infer<typeof envSchema>;
 
 /** Reads and checks the environment once; a bad value stops start-up with the variable named. */
-export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
+export function readEnv(source: Record<string, string | undefined> = process.env): Env {
   const parsed = envSchema.safeParse(source);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`);

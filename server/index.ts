@@ -45,7 +45,14 @@ export function closeOnSignals(close: () => Promise<void>) {
 // `npm run serve`: the API and exported app against an already running database.
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
   const env = readEnv();
-  const running = await runServer({ host: env.HOST, port: env.PORT, dbUrl: databaseUrl(env) });
-  console.log(`Troughline is serving at ${running.url}`);
-  closeOnSignals(running.close);
+  runServer({ host: env.HOST, port: env.PORT, dbUrl: databaseUrl(env) }).then(
+    (running) => {
+      console.log(`Troughline is serving at ${running.url}`);
+      closeOnSignals(running.close);
+    },
+    (error) => {
+      console.error(error instanceof Error ? error.message : error);
+      process.exit(1);
+    },
+  );
 }

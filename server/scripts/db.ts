@@ -6,7 +6,7 @@ import { devInstance, prepareLocalDatabase } from './local-db';
 const command = process.argv[2];
 const env = readEnv();
 
-try {
+async function main() {
   switch (command) {
     case 'start':
     case 'migrate':
@@ -24,7 +24,9 @@ try {
       console.error('Usage: db.ts start|stop|migrate|seed');
       process.exit(2);
   }
-} catch (error) {
+}
+
+main().catch((error) => {
   console.error(error instanceof SetupError ? error.message : error);
   process.exit(1);
-}
+});

@@ -9,16 +9,23 @@ import { closeOnSignals, runServer } from '../index';
 import { readEnv } from '../env';
 import { prepareLocalDatabase } from './local-db';
 
-const env = readEnv();
-const metroPort = env.PORT + 2;
-const dbUrl = await prepareLocalDatabase(env);
+async function main() {
+  const env = readEnv();
+  const metroPort = env.PORT + 2;
+  const dbUrl = await prepareLocalDatabase(env);
 
-const metro = spawn('npx', ['expo', 'start', '--web', '--port', String(metroPort)], { stdio: 'inherit', env: { ...process.env, BROWSER: 'none' } });
-const proxy = createProxyMiddleware({ target: `http://127.0.0.1:${metroPort}`, ws: true, changeOrigin: true });
-const running = await runServer({ host: env.HOST, port: env.PORT, dbUrl, webProxy: proxy });
-running.server.on('upgrade', proxy.upgrade);
-console.log(`\nTroughline (development) at ${running.url}; server code changes need a restart (Ctrl-C, npm run dev).`);
-closeOnSignals(async () => {
-  metro.kill('SIGTERM');
-  await running.close();
+  const metro = spawn('npx', ['expo', 'start', '--web', '--port', String(metroPort)], { stdio: 'inherit', env: { ...process.env, BROWSER: 'none' } });
+  const proxy = createProxyMiddleware({ target: `http://127.0.0.1:${metroPort}`, ws: true, changeOrigin: true });
+  const running = await runServer({ host: env.HOST, port: env.PORT, dbUrl, webProxy: proxy });
+  running.server.on('upgrade', proxy.upgrade);
+  console.log(`\nTroughline (development) at ${running.url}; server code changes need a restart (Ctrl-C, npm run dev).`);
+  closeOnSignals(async () => {
+    metro.kill('SIGTERM');
+    await running.close();
+  });
+}
+
+main().catch((error) => {
+  console.error(error);
+  process.exit(1);
 });

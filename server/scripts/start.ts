@@ -5,14 +5,16 @@ import { readEnv } from '../env';
 import { prepareLocalDatabase } from './local-db';
 import { ensureWebBuild } from './web-build';
 
-try {
+async function main() {
   const env = readEnv();
   const dbUrl = await prepareLocalDatabase(env);
   ensureWebBuild();
   const running = await runServer({ host: env.HOST, port: env.PORT, dbUrl });
   console.log(`\nTroughline is serving at ${running.url}\n(the database keeps running; stop it with: npm run db:stop)`);
   closeOnSignals(running.close);
-} catch (error) {
+}
+
+main().catch((error) => {
   console.error(error instanceof SetupError || error instanceof Error ? `\n${error.message}` : error);
   process.exit(1);
-}
+});

@@ -53,7 +53,7 @@ const styles = StyleSheet.create({
   main: { flex: 1 },
   slot: { flex: 1 },
   bar: { flexDirection: 'row', backgroundColor: colors.paperRaised, borderTopWidth: 1, borderTopColor: colors.rule },
-  rail: { width: 272, flexDirection: 'column', gap: space.xs, padding: space.lg, backgroundColor: colors.paperRaised, borderRightWidth: 1, borderRightColor: colors.rule },
+  rail: { width: 280, flexDirection: 'column', justifyContent: 'flex-start', gap: space.xs, padding: space.lg, backgroundColor: colors.paperRaised, borderRightWidth: 1, borderRightColor: colors.rule },
   brand: { paddingHorizontal: space.md, paddingBottom: space.xl, paddingTop: space.sm },
   brandName: { color: colors.brand },
 });

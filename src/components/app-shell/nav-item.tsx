@@ -17,8 +17,9 @@ export const NavItem = forwardRef<ViewType, NavItemProps>(function NavItem({ sec
     <Pressable
       ref={ref}
       {...pressable}
-      accessibilityRole="link"
-      accessibilityState={{ selected: !!isFocused }}
+      role="link"
+      // A tab here is a link to a section; aria-current marks the one shown.
+      aria-current={isFocused ? 'page' : undefined}
       testID={`nav-${section.name}`}
       style={[layout === 'bar' ? styles.bar : styles.rail, isFocused && (layout === 'bar' ? styles.barFocused : styles.railFocused)]}
     >
@@ -30,7 +31,7 @@ export const NavItem = forwardRef<ViewType, NavItemProps>(function NavItem({ sec
       ) : (
         <View style={styles.railText}>
           <AppText style={[{ color: isFocused ? colors.brand : colors.ink }, isFocused && styles.focusedLabel]}>{section.label}</AppText>
-          <AppText variant="caption" muted numberOfLines={1}>{section.hint}</AppText>
+          <AppText variant="caption" muted>{section.hint}</AppText>
         </View>
       )}
     </Pressable>

@@ -27,6 +27,7 @@ const ZERO_COEF = 1e-11;
 
 type JsModel = InstanceType<typeof lpSolverLib.Model>;
 type JsConstraint = ReturnType<JsModel['smallerThan']>;
+type JsVariable = ReturnType<JsModel['addVariable']>;
 
 interface Part {
   con: JsConstraint;
@@ -55,6 +56,23 @@ export function solveWithSimplexJs(lp: LinearProgram, options: LpSolveOptions = 
 }
 
 function solveInner(lp: LinearProgram, options: LpSolveOptions): LpOutcome {
+  const built = createSimplexJsModel(lp);
+  return 'status' in built ? built : built.solve(options);
+}
+
+/**
+ * A javascript-lp-solver model kept alive for warm re-solves: after `setCost`, `solve`
+ * continues from the last optimal tableau (still primal feasible, so only phase 2 runs).
+ */
+export interface SimplexJsModel {
+  /** Change the objective coefficient of column j (currency per unit of the column). */
+  setCost(j: number, cost: number): void;
+  /** Solve (first call) or re-solve warm (later calls); never throws. */
+  solve(options?: LpSolveOptions): LpOutcome;
+}
+
+/** Build a warm-startable javascript-lp-solver model, or an outcome when the LP is trivially infeasible/invalid. */
+export function createSimplexJsModel(lp: LinearProgram): SimplexJsModel | Extract<LpOutcome, { status: 'infeasible' | 'error' }> {
   const nCols = lp.colCost.length;
   const nRows = lp.rows.length;
   let costMax = 0;
@@ -70,7 +88,7 @@ function solveInner(lp: LinearProgram, options: LpSolveOptions): LpOutcome {
   const model = new lpSolverLib.Model(PRECISION);
   // Presolve zeroes the cost of variables it fixes, which would corrupt the duals read below.
   model.usePresolve = false;
-  const vars = new Array(nCols);
+  const vars: JsVariable[] = new Array(nCols);
   for (let j = 0; j < nCols; j++) vars[j] = model.addVariable(lp.colCost[j] * k, 'x' + j);
 
   const parts: Part[] = [];
@@ -118,7 +136,29 @@ function solveInner(lp: LinearProgram, options: LpSolveOptions): LpOutcome {
     }
   }
 
-  model.solve();
+  const costs = [...lp.colCost];
+  let solved = false;
+  return {
+    setCost(j: number, cost: number) {
+      costs[j] = cost;
+      if (solved) model.setCost(cost * k, vars[j]);
+      else vars[j].cost = cost * k;
+    },
+    solve(options: LpSolveOptions = {}): LpOutcome {
+      try {
+        model.solve();
+        solved = true;
+        return readTableau(model, vars, parts, { ...lp, colCost: costs }, k, options);
+      } catch (err) {
+        return { status: 'error', message: `javascript-lp-solver failed: ${(err as Error).message}` };
+      }
+    },
+  };
+}
+
+function readTableau(model: JsModel, vars: JsVariable[], parts: Part[], lp: LinearProgram, k: number, options: LpSolveOptions): LpOutcome {
+  const nCols = lp.colCost.length;
+  const nRows = lp.rows.length;
   const t = model.tableau;
   if (!t.feasible) return { status: 'infeasible' };
   if (!t.bounded) return { status: 'unbounded' };

@@ -1,2 +1,3 @@
 export * from './organizations';
 export * from './seed-runs';
+export * from './accounts';

@@ -19,7 +19,8 @@ type ElasticRef =
   | { kind: 'row'; row: number; side: 'min' | 'max' }
   | { kind: 'column'; col: number; side: 'min' | 'max' };
 
-interface ElasticModel {
+/** The elastic model of a formula (exported for cross-checking against another solver). */
+export interface ElasticModel {
   lp: LinearProgram;
   weights: number[];
   elastic: ElasticRef[];
@@ -42,7 +43,8 @@ function normOfRow(model: FormulaModel, i: number): number {
   return 1;
 }
 
-function buildElastic(model: FormulaModel): ElasticModel {
+/** Build the elastic (phase A) model of a formula: every user bound may move at a relative penalty. */
+export function buildElastic(model: FormulaModel): ElasticModel {
   const src = model.lp;
   const n = src.colCost.length;
   const lp: LinearProgram = {

@@ -159,8 +159,8 @@ export function suiteProblem(i: number): { variant: Variant; problem: FormulaPro
   if (variant === 'infeasible') {
     const k = i % 4;
     if (k === 0) Object.assign(p.nutrients.find((n) => n.id === 'cp')!, { min: 30 + 5 * r(), max: undefined });
-    else if (k === 1) p.nutrients.find((n) => n.id === 'fibre')!.max = 1.0;
-    else if (k === 2) p.groups.push({ id: 'all', members: p.ingredients.map((x) => x.id).slice(0, 3), minKg: 900 });
+    else if (k === 1) p.nutrients.find((n) => n.id === 'fibre')!.max = 0.3;
+    else if (k === 2) p.groups.push({ id: 'minerals', members: ['limestone', 'dcp', 'salt'], minKg: 300 });
     else p.ratios.push({ id: 'hi-ca', numerator: 'ca', denominator: 'cp', min: 0.5 });
   }
   if (variant === 'degenerate') {

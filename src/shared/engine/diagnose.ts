@@ -1,9 +1,11 @@
 /**
  * Infeasibility explained: the cheapest set of relaxations, by an elastic model.
  *
- * Every bound except the batch total gets a non-negative slack that may move it, at
- * a penalty per unit of move measured relative to the bound (a 1 % shortfall of crude
- * protein and a 1 % shortfall of lysine weigh the same; for kg limits, 1 % of the batch).
+ * Nutrient and ratio bounds get non-negative slacks that may move them, at a penalty per
+ * unit of move measured relative to the bound (a 1 % shortfall of crude protein and a 1 %
+ * shortfall of lysine weigh the same). Ingredient and group limits stay hard unless no
+ * nutrient move can help (minimums above the batch, say); then they may move too, at a
+ * penalty per 1 % of the batch.
  * Phase A minimises the total weighted move; phase B keeps that minimum and finds the
  * least-cost mix among those, so the closest mix is also the cheapest such mix. The
  * duals of phase A name the bounds that conflict with the relaxed ones.
@@ -43,8 +45,12 @@ function normOfRow(model: FormulaModel, i: number): number {
   return 1;
 }
 
-/** Build the elastic (phase A) model of a formula: every user bound may move at a relative penalty. */
-export function buildElastic(model: FormulaModel): ElasticModel {
+/**
+ * Build the elastic (phase A) model of a formula: user bounds may move at a relative penalty.
+ * @param moveLimits also let ingredient and group limits move (otherwise only nutrient and
+ *   ratio bounds do, and the limits stay hard).
+ */
+export function buildElastic(model: FormulaModel, moveLimits = true): ElasticModel {
   const src = model.lp;
   const n = src.colCost.length;
   const lp: LinearProgram = {
@@ -80,7 +86,8 @@ export function buildElastic(model: FormulaModel): ElasticModel {
     lp.rowUpper.push(src.rowUpper[i]);
     lp.rows.push(row);
     origin.push({ kind: 'row', row: i });
-    if (model.rowRefs[i].kind === 'batch') return;
+    const kind = model.rowRefs[i].kind;
+    if (kind === 'batch' || (!moveLimits && kind === 'group')) return;
     const w = 1 / normOfRow(model, i);
     if (Number.isFinite(src.rowLower[i])) addElastic(row, 1, w, { kind: 'row', row: i, side: 'min' });
     if (Number.isFinite(src.rowUpper[i])) addElastic(row, -1, w, { kind: 'row', row: i, side: 'max' });
@@ -95,6 +102,7 @@ export function buildElastic(model: FormulaModel): ElasticModel {
     lp.rowUpper.push(up);
     lp.rows.push(row);
     origin.push({ kind: 'column', col: j });
+    if (!moveLimits) continue;
     if (lo > 0) addElastic(row, 1, 1, { kind: 'column', col: j, side: 'min' });
     if (up !== Infinity) addElastic(row, -1, 1, { kind: 'column', col: j, side: 'max' });
   }
@@ -147,8 +155,14 @@ export function diagnoseFormula(
 ): { kind: 'infeasible'; result: InfeasibleResult } | { kind: 'feasible'; x: Float64Array } {
   const p = model.problem;
   const B = p.batchKg;
-  const em = buildElastic(model);
-  const a = solver.solve(em.lp);
+  // Ingredient and group limits (stock, safety caps, fixed amounts) are kept when moving
+  // nutrient and ratio bounds alone can make a mix possible; only otherwise may they move too.
+  let em = buildElastic(model, false);
+  let a = solver.solve(em.lp);
+  if (a.status === 'infeasible') {
+    em = buildElastic(model, true);
+    a = solver.solve(em.lp);
+  }
   if (a.status !== 'optimal') {
     return {
       kind: 'infeasible',

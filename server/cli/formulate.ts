@@ -11,7 +11,7 @@
  */
 import { readFileSync } from 'node:fs';
 
-import { allocate, DIRECT_FORMULA_LIMIT } from '../../src/shared/engine/allocate';
+import { allocate } from '../../src/shared/engine/allocate';
 import { evaluateMix } from '../../src/shared/engine/evaluate';
 import { solveFormula } from '../../src/shared/engine/formulate';
 import { priceSweep } from '../../src/shared/engine/price-sweep';
@@ -59,8 +59,7 @@ async function main() {
   if (kind === 'evaluate') result = evaluateMix(input);
   else if (kind === 'sweep') result = priceSweep(input);
   else if (kind === 'allocate') {
-    const n = Array.isArray(obj.formulas) ? obj.formulas.length : 0;
-    result = allocate(input, { largeSolver: n > DIRECT_FORMULA_LIMIT ? await getHighsSolver() : undefined });
+    result = allocate(input, { largeSolver: await getHighsSolver() });
   } else result = solveFormula(input);
 
   process.stdout.write(JSON.stringify(result, null, flags.has('--compact') ? undefined : 2) + '\n');

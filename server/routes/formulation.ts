@@ -1,6 +1,6 @@
 import { Router } from 'express';
 
-import { allocate, DIRECT_FORMULA_LIMIT } from '../../src/shared/engine/allocate';
+import { allocate } from '../../src/shared/engine/allocate';
 import { evaluateMix } from '../../src/shared/engine/evaluate';
 import { solveFormula } from '../../src/shared/engine/formulate';
 import type { LpSolver } from '../../src/shared/engine/lp-types';
@@ -15,7 +15,7 @@ import { getHighsSolver } from '../lp/highs-solver';
 
 /** Options for {@link formulationRouter}. */
 export interface FormulationRouterOptions {
-  /** Sparse solver for allocations above the in-app size (default: HiGHS, loaded on first use). */
+  /** Sparse solver used as the allocation fallback (default: HiGHS, loaded on first use). */
   largeSolver?: () => Promise<LpSolver>;
 }
 
@@ -46,8 +46,8 @@ export function formulationRouter(options: FormulationRouterOptions = {}): Route
 
   router.post('/solve/allocate', async (req, res) => {
     const problem = allocationProblemSchema.parse(req.body);
-    const largeSolver = problem.formulas.length > DIRECT_FORMULA_LIMIT ? await large() : undefined;
-    res.json(allocate(problem, { trusted: true, largeSolver }));
+    // HiGHS is the fallback when the decomposition fails and serves the diagnosis of a large infeasible allocation.
+    res.json(allocate(problem, { trusted: true, largeSolver: await large() }));
   });
 
   router.post('/solve/price-sweep', (req, res) => {

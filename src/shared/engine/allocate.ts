@@ -7,8 +7,8 @@
  * Σ_f batchKg_f · x_fj <= stockKg_j. The stock rows' duals are the value of one more kg.
  *
  * javascript-lp-solver's dense tableau grows with (formulas × ingredients) × (formulas ×
- * bounds), so beyond a measured size the caller should pass a sparse solver (`largeSolver`,
- * HiGHS on the server) or use the decomposition in `decompose.ts`; see README.md.
+ * bounds), so by default the LP is solved by decomposition over the stock rows
+ * (`decompose.ts`), which keeps every LP small; HiGHS (server) is the fallback. See README.md.
  */
 import {
   allocationProblemSchema,
@@ -29,8 +29,8 @@ import { reportMix } from './report';
 import { simplexJs } from './simplex-js';
 
 /**
- * Above this many formulas the monolithic javascript-lp-solver model is not used
- * (measured: about 45 ms at 20 formulas of 25 ingredients, 0.4 s at 40, 7 s at 100).
+ * Above this many formulas the monolithic javascript-lp-solver model is not even tried as a
+ * fallback (measured here: 46 ms at 20 formulas of 25 ingredients, 0.35 s at 40, seconds at 100).
  */
 export const DIRECT_FORMULA_LIMIT = 24;
 
@@ -41,9 +41,10 @@ export interface AllocationOptions {
   /** Sparse solver for large monolithic models (the server passes HiGHS). */
   largeSolver?: LpSolver;
   /**
-   * 'auto' (default): monolithic javascript-lp-solver up to {@link DIRECT_FORMULA_LIMIT} formulas,
-   * else `largeSolver` when given, else decomposition. 'direct' forces the monolithic model on
-   * `solver`; 'large' forces `largeSolver`; 'decomposition' forces the decomposition.
+   * 'auto' (default): decomposition over the stock rows on `solver`; if it fails, `largeSolver`
+   * when given, then the monolithic model up to {@link DIRECT_FORMULA_LIMIT} formulas.
+   * 'direct' forces the monolithic model on `solver`; 'large' forces `largeSolver`;
+   * 'decomposition' forces the decomposition.
    */
   method?: 'auto' | 'direct' | 'large' | 'decomposition';
   trusted?: boolean;
@@ -128,34 +129,46 @@ export function allocate(input: unknown, options: AllocationOptions = {}): Alloc
   }
   const tolerance = problem.options?.tolerance ?? DEFAULT_TOLERANCE;
   const am = buildAllocationModel(problem);
-  const method = pickMethod(am, options);
-
-  let outcome: LpOutcome;
-  let solverName: string;
-  if (method === 'decomposition') {
-    outcome = solveByDecomposition(am, options.solver ?? simplexJs);
-    solverName = `decomposition/${(options.solver ?? simplexJs).name}`;
-  } else {
-    const s = method === 'large' && options.largeSolver ? options.largeSolver : (options.solver ?? simplexJs);
-    outcome = s.solve(am.lp);
-    solverName = s.name;
+  const small = options.solver ?? simplexJs;
+  const methods = planMethods(am, options);
+  let failure = 'no solver ran';
+  for (const method of methods) {
+    let outcome: LpOutcome;
+    let solverName: string;
+    if (method === 'decomposition') {
+      outcome = solveByDecomposition(am, small);
+      solverName = `decomposition/${small.name}`;
+    } else {
+      const s = method === 'large' && options.largeSolver ? options.largeSolver : small;
+      outcome = s.solve(am.lp);
+      solverName = s.name;
+    }
+    if (outcome.status === 'infeasible') return explainAllocation(am, options.largeSolver ?? small);
+    if (outcome.status === 'unbounded') return { status: 'unbounded', message: 'The total cost can fall without limit; check for negative prices.' };
+    if (outcome.status === 'error') {
+      failure = outcome.message;
+      continue;
+    }
+    const check = maxScaledViolation(am.lp, outcome.colValue);
+    if (check.violation > tolerance) {
+      failure = `the allocation from ${solverName} breaks ${check.where ?? 'a bound'} by ${check.violation.toExponential(2)} (relative)`;
+      continue;
+    }
+    return reportAllocation(am, outcome, solverName, check.violation, tolerance);
   }
-  if (outcome.status === 'infeasible') return explainAllocation(am, options.solver ?? simplexJs);
-  if (outcome.status === 'unbounded') return { status: 'unbounded', message: 'The total cost can fall without limit; check for negative prices.' };
-  if (outcome.status === 'error') return { status: 'failed', message: outcome.message };
-  const check = maxScaledViolation(am.lp, outcome.colValue);
-  if (check.violation > tolerance) {
-    return { status: 'failed', message: `The allocation breaks ${check.where ?? 'a bound'} by ${check.violation.toExponential(2)} (relative); no answer is reported.` };
-  }
-  return reportAllocation(am, outcome, solverName, check.violation, tolerance);
+  return { status: 'failed', message: `No allocation passed the bound check: ${failure}. No answer is reported.` };
 }
 
-function pickMethod(am: AllocationModel, options: AllocationOptions): 'direct' | 'large' | 'decomposition' {
+/**
+ * Methods to try, in order. 'auto': the decomposition (fastest on javascript-lp-solver at
+ * every size measured), then the sparse solver if given, then the monolithic model while it
+ * is small enough; a method that fails or whose answer fails the bound check hands over to the next.
+ */
+function planMethods(am: AllocationModel, options: AllocationOptions): ('direct' | 'large' | 'decomposition')[] {
   const m = options.method ?? 'auto';
-  if (m === 'direct' || m === 'decomposition') return m;
-  if (m === 'large') return options.largeSolver ? 'large' : 'decomposition';
-  if (am.models.length <= DIRECT_FORMULA_LIMIT) return 'direct';
-  return options.largeSolver ? 'large' : 'decomposition';
+  if (m === 'direct' || m === 'decomposition') return [m];
+  if (m === 'large') return [options.largeSolver ? 'large' : 'decomposition'];
+  return ['decomposition', ...(options.largeSolver ? (['large'] as const) : []), ...(am.models.length <= DIRECT_FORMULA_LIMIT ? (['direct'] as const) : [])];
 }
 
 function reportAllocation(

@@ -2,27 +2,72 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import express, { type Express, type RequestHandler } from 'express';
 
+import type { AccountsDeps } from './auth/deps';
+import { createLucia } from './auth/lucia';
+import { AttemptLimiter } from './auth/rate-limit';
+import { sameOriginOnly, sessionMiddleware } from './auth/session-middleware';
 import type { Db } from './db/client';
 import { apiNotFound, errorHandler } from './http/error-handler';
+import { HttpError } from './http/errors';
+import type { DevInbox } from './mail/dev-inbox';
+import type { Mailer } from './mail/mailer';
+import { authRouter } from './routes/auth';
+import { devMailRouter } from './routes/dev-mail';
+import { formulationRouter } from './routes/formulation';
 import { healthRouter } from './routes/health';
+import { invitationsRouter } from './routes/invitations';
+import { membersRouter } from './routes/members';
 
 export type AppOptions = {
   db: Db;
+  /** Sends invitations and reset links. Without one, routes that mail answer 503 and say so. */
+  mailer?: Mailer;
+  /** The local fake SMTP server, whose messages GET /api/dev/mail lists (development and tests only). */
+  devInbox?: DevInbox;
+  /** Base of links in e-mails (PUBLIC_URL); defaults to the address each request came to. */
+  publicUrl?: string;
+  /** Mark the session cookie Secure (serving over https). */
+  secureCookies?: boolean;
   /** Folder of the exported web app to serve (dist/). Omit to serve the API only. */
   webDist?: string;
   /** In development, everything that is not /api goes to Metro through this proxy. */
   webProxy?: RequestHandler;
 };
 
-/** Builds the Express app; tests call it with their own database. */
-export function createApp({ db, webDist, webProxy }: AppOptions): Express {
+const noMailer: Mailer = {
+  from: '',
+  send: async () => {
+    throw new HttpError(503, 'mail_unavailable', 'E-mail is not set up on this server (set SMTP_URL), so nothing was sent.');
+  },
+};
+
+/** Builds the Express app; tests call it with their own database and inbox. */
+export function createApp({ db, mailer, devInbox, publicUrl, secureCookies = false, webDist, webProxy }: AppOptions): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
 
+  const lucia = createLucia(db, { secureCookies });
+  const accounts: AccountsDeps = {
+    db,
+    lucia,
+    mailer: mailer ?? noMailer,
+    publicUrl,
+    // 10 failed sign-ins per address and client, 50 per client, per 15 minutes.
+    signInLimiter: new AttemptLimiter(10, 15 * 60_000),
+    resetLimiter: new AttemptLimiter(20, 60 * 60_000),
+  };
+
   const api = express.Router();
   api.use(express.json({ limit: '2mb' }));
+  api.use(sameOriginOnly);
+  api.use(sessionMiddleware(lucia, db));
   api.use('/health', healthRouter({ db }));
+  api.use('/auth', authRouter(accounts));
+  api.use('/invitations', invitationsRouter(accounts));
+  api.use('/members', membersRouter({ db }));
+  api.use('/dev/mail', devMailRouter({ inbox: devInbox }));
+  api.use('/', formulationRouter());
   api.use(apiNotFound);
   app.use('/api', api);
 

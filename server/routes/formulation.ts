@@ -11,6 +11,7 @@ import {
   formulaProblemSchema,
   priceSweepSchema,
 } from '../../src/shared/schemas/formulation';
+import { access } from '../http/access';
 import { getHighsSolver } from '../lp/highs-solver';
 
 /** Options for {@link formulationRouter}. */
@@ -34,23 +35,23 @@ export function formulationRouter(options: FormulationRouterOptions = {}): Route
   const router = Router();
   const large = options.largeSolver ?? getHighsSolver;
 
-  router.post('/solve', (req, res) => {
+  router.post('/solve', access.member('formulas:solve'), (req, res) => {
     const problem = formulaProblemSchema.parse(req.body);
     res.json(solveFormula(problem, { trusted: true }));
   });
 
-  router.post('/solve/evaluate', (req, res) => {
+  router.post('/solve/evaluate', access.member('ration:check'), (req, res) => {
     evaluationProblemSchema.parse(req.body);
     res.json(evaluateMix(req.body));
   });
 
-  router.post('/solve/allocate', async (req, res) => {
+  router.post('/solve/allocate', access.member('formulas:solve'), async (req, res) => {
     const problem = allocationProblemSchema.parse(req.body);
     // HiGHS is the fallback when the decomposition fails and serves the diagnosis of a large infeasible allocation.
     res.json(allocate(problem, { trusted: true, largeSolver: await large() }));
   });
 
-  router.post('/solve/price-sweep', (req, res) => {
+  router.post('/solve/price-sweep', access.member('formulas:solve'), (req, res) => {
     priceSweepSchema.parse(req.body);
     res.json(priceSweep(req.body));
   });

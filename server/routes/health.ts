@@ -3,6 +3,7 @@ import { Router } from 'express';
 
 import type { Health } from '../../src/shared/schemas/health';
 import type { Db } from '../db/client';
+import { access } from '../http/access';
 import { APP_VERSION } from '../version';
 
 const started = Date.now();
@@ -16,7 +17,7 @@ async function databaseAnswers(db: Db): Promise<boolean> {
 /** GET /api/health: open to anyone (load balancers, the sign-in page); says nothing private. 503 when the database is down. */
 export function healthRouter({ db }: { db: Db }): Router {
   const router = Router();
-  router.get('/', async (_req, res) => {
+  router.get('/', access.public(), async (_req, res) => {
     const ok = await databaseAnswers(db);
     const body: Health = { version: APP_VERSION, database: ok ? 'ok' : 'down', uptimeSeconds: Math.round((Date.now() - started) / 1000) };
     res.status(ok ? 200 : 503).json(body);

@@ -24,6 +24,7 @@ export const ROLE_DESCRIPTIONS: Record<Role, string> = {
 };
 
 export const PERMISSIONS = [
+  'members:read',
   'members:manage',
   'settings:manage',
   'library:read',
@@ -48,6 +49,7 @@ const EVERYONE: readonly Role[] = ROLES;
 
 /** Which roles hold each permission. The owner holds all of them. */
 export const PERMISSION_ROLES: Record<Permission, readonly Role[]> = {
+  'members:read': EVERYONE,
   'members:manage': ['owner'],
   'settings:manage': ['owner'],
   'library:read': EVERYONE,

@@ -1,0 +1,3 @@
+// Every area's table of routes and expected answers. A new area adds one line here.
+export { accountsRules } from './accounts.rules';
+export { formulationRules } from './formulation.rules';

@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm';
 
 import type { Db } from './client';
+import { seedDemoAccounts } from './demo/accounts';
 import { organizations, seedRuns, type NewOrganizationRow } from './schema';
 
 /**
@@ -17,6 +18,7 @@ export type SeedStep = { name: string; apply: (tx: Db) => Promise<void> };
 
 export const DEMO_SEED_STEPS: SeedStep[] = [
   { name: 'demo-organizations-v1', apply: async (tx) => void (await tx.insert(organizations).values(DEMO_ORGANIZATIONS)) },
+  { name: 'demo-accounts-v1', apply: seedDemoAccounts },
 ];
 
 /** Applies the seed steps that have not run yet; returns the names applied. */

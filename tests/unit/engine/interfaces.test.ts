@@ -9,6 +9,7 @@ import { after, before, describe, test } from 'node:test';
 
 import express from 'express';
 
+import '../../../server/http/access';
 import { errorHandler } from '../../../server/http/error-handler';
 import { formulationRouter } from '../../../server/routes/formulation';
 
@@ -44,6 +45,11 @@ describe('formulation router', () => {
   before(async () => {
     const app = express();
     app.use(express.json({ limit: '5mb' }));
+    // The routes sit behind the session middleware; here a signed-in nutritionist stands in for it.
+    app.use((req, _res, next) => {
+      req.auth = { user: { id: 'u1' }, session: { id: 's1' }, membership: { organizationId: 1, organizationName: 'Test mill', role: 'nutritionist' } } as unknown as NonNullable<typeof req.auth>;
+      next();
+    });
     app.use('/api', formulationRouter());
     app.use(errorHandler);
     await new Promise<void>((resolve) => {

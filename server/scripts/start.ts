@@ -1,5 +1,5 @@
 /** `npm start`: private database up, migrations and demo data, web app built if stale, one server for both. */
-import { closeOnSignals, runServer } from '../index';
+import { closeOnSignals, runServer, setUpMail } from '../index';
 import { SetupError } from '../db/mariadb';
 import { readEnv } from '../env';
 import { prepareLocalDatabase } from './local-db';
@@ -9,9 +9,13 @@ async function main() {
   const env = readEnv();
   const dbUrl = await prepareLocalDatabase(env);
   ensureWebBuild();
-  const running = await runServer({ host: env.HOST, port: env.PORT, dbUrl });
+  const mail = await setUpMail(env);
+  const running = await runServer({ ...mail, publicUrl: env.PUBLIC_URL, secureCookies: env.PUBLIC_URL?.startsWith('https:'), host: env.HOST, port: env.PORT, dbUrl });
   console.log(`\nTroughline is serving at ${running.url}\n(the database keeps running; stop it with: npm run db:stop)`);
-  closeOnSignals(running.close);
+  closeOnSignals(async () => {
+    await running.close();
+    await mail.devInbox?.close();
+  });
 }
 
 main().catch((error) => {

@@ -55,6 +55,7 @@ export function createApp({ db, mailer, devInbox, publicUrl, secureCookies = fal
     publicUrl,
     // 10 failed sign-ins per address and client, 50 per client, per 15 minutes.
     signInLimiter: new AttemptLimiter(10, 15 * 60_000),
+    clientLimiter: new AttemptLimiter(50, 15 * 60_000),
     resetLimiter: new AttemptLimiter(20, 60 * 60_000),
   };
 

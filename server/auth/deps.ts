@@ -10,6 +10,9 @@ export type AccountsDeps = {
   mailer: Mailer;
   /** Base of links in e-mails; defaults to the address each request came to. */
   publicUrl?: string;
+  /** Failed sign-ins per address and client. */
   signInLimiter: AttemptLimiter;
+  /** Failed sign-ins per client, whatever the address (spraying many accounts). */
+  clientLimiter: AttemptLimiter;
   resetLimiter: AttemptLimiter;
 };

@@ -72,7 +72,7 @@ export function authRouter(deps: AccountsDeps): Router {
   router.post('/sign-in', access.public(), async (req, res) => {
     const input = signInInput.parse(req.body);
     const key = `${clientKey(req)}|${input.email}`;
-    const wait = Math.max(deps.signInLimiter.retryAfterSeconds(key), deps.signInLimiter.retryAfterSeconds(clientKey(req)));
+    const wait = Math.max(deps.signInLimiter.retryAfterSeconds(key), deps.clientLimiter.retryAfterSeconds(clientKey(req)));
     if (wait > 0) {
       res.setHeader('Retry-After', String(wait));
       throw new HttpError(429, 'too_many_attempts', `Too many sign-in attempts. Try again in ${Math.ceil(wait / 60)} minute(s).`);
@@ -81,7 +81,7 @@ export function authRouter(deps: AccountsDeps): Router {
     const ok = user ? await verifyPassword(user.passwordHash, input.password) : (await burnPasswordCheck(input.password), false);
     if (!user || !ok) {
       deps.signInLimiter.recordFailure(key);
-      deps.signInLimiter.recordFailure(clientKey(req));
+      deps.clientLimiter.recordFailure(clientKey(req));
       // The same words whether the e-mail is unknown or the password wrong: no account fishing.
       throw new HttpError(401, 'invalid_credentials', 'That e-mail and password do not match an account.');
     }

@@ -45,7 +45,7 @@ describe('accounts', () => {
       assert.ok(taken.body.error.fieldErrors.email);
       const bad = await c.call('POST', '/api/auth/sign-up', { email: 'not-an-email', password: 'short', name: '' });
       assert.equal(bad.status, 400);
-      assert.deepEqual(Object.keys(bad.body.error.fieldErrors).sort(), ['email', 'name', 'password']);
+      assert.deepEqual(Object.keys(bad.body.error.fieldErrors).sort(), ['email', 'name', 'organizationName', 'password']);
     });
   });
 

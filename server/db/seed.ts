@@ -1,6 +1,8 @@
 import { eq } from 'drizzle-orm';
 
 import type { Db } from './client';
+import { seedDemoLibraries } from './reference-data/demo-library';
+import { seedReferenceLibrary } from './reference-data/seed-library';
 import { seedDemoAccounts } from './demo/accounts';
 import { organizations, seedRuns, type NewOrganizationRow } from './schema';
 
@@ -16,9 +18,14 @@ const DEMO_ORGANIZATIONS: NewOrganizationRow[] = [
 
 export type SeedStep = { name: string; apply: (tx: Db) => Promise<void> };
 
+/** The read-only reference library (nutrients, ingredients, species, specifications); every database needs it. */
+export const REFERENCE_LIBRARY_STEP: SeedStep = { name: 'reference-library-v1', apply: seedReferenceLibrary };
+
 export const DEMO_SEED_STEPS: SeedStep[] = [
+  REFERENCE_LIBRARY_STEP,
   { name: 'demo-organizations-v1', apply: async (tx) => void (await tx.insert(organizations).values(DEMO_ORGANIZATIONS)) },
   { name: 'demo-accounts-v1', apply: seedDemoAccounts },
+  { name: 'demo-libraries-v1', apply: seedDemoLibraries },
 ];
 
 /** Applies the seed steps that have not run yet; returns the names applied. */

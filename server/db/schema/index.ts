@@ -1,3 +1,5 @@
 export * from './organizations';
 export * from './seed-runs';
 export * from './accounts';
+export * from './library';
+export * from './requirements';

@@ -6,6 +6,7 @@ import { StatusBar } from 'expo-status-bar';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 
 import { createQueryClient } from '@/api/query-client';
+import { ServiceStatus } from '@/components/app-shell/service-status';
 import { fontFiles } from '@/theme';
 
 export default function RootLayout() {
@@ -18,6 +19,8 @@ export default function RootLayout() {
     <SafeAreaProvider>
       <QueryClientProvider client={queryClient}>
         <StatusBar style="dark" />
+        {/* Above every page, signed in or not: says plainly when the server or database is down. */}
+        <ServiceStatus />
         <Stack screenOptions={{ headerShown: false }} />
       </QueryClientProvider>
     </SafeAreaProvider>

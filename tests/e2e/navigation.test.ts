@@ -6,7 +6,8 @@ import type { Browser, Page } from 'playwright-core';
 import { createApp } from '../../server/app';
 import { openDb } from '../../server/db/client';
 import { WEB_DIST } from '../../server/index';
-import { launchBrowser, PHONE, TEST_OUTPUT, WIDE } from '../helpers/browser';
+import { FIXTURE_PASSWORD, createOrganization, createUser } from '../helpers/accounts';
+import { launchBrowser, PHONE, signInThroughForm, TEST_OUTPUT, WIDE } from '../helpers/browser';
 import { createTestDatabase, type TestDatabase } from '../helpers/db';
 import { listen, type TestServer } from '../helpers/http';
 
@@ -27,6 +28,8 @@ describe('the exported web app', () => {
 
   before(async () => {
     database = await createTestDatabase('e2e_nav');
+    const org = await createOrganization(database.db, 'Navigation Test Mill');
+    await createUser(database.db, { email: 'nav@example.org', organizationId: org.id, role: 'nutritionist' });
     server = await listen(createApp({ db: database.db, webDist: WEB_DIST }));
     browser = await launchBrowser();
   });
@@ -38,7 +41,7 @@ describe('the exported web app', () => {
 
   test('on a 375 px phone: bottom tabs reach all five sections', async () => {
     const page = await browser.newPage({ viewport: PHONE });
-    await page.goto(server.baseUrl);
+    await signInThroughForm(page, server.baseUrl, 'nav@example.org', FIXTURE_PASSWORD);
     await visible(page, 'bottom-bar').waitFor();
     assert.equal(await page.locator('[data-testid="side-rail"]').count(), 0, 'no side rail on a phone');
     const bar = await visible(page, 'bottom-bar').boundingBox();
@@ -58,6 +61,7 @@ describe('the exported web app', () => {
 
   test('at 1280 px: a side rail with the five sections, content beside it', async () => {
     const page = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(page, server.baseUrl, 'nav@example.org', FIXTURE_PASSWORD);
     await page.goto(`${server.baseUrl}/requirements`);
     await visible(page, 'screen-requirements').waitFor();
     assert.equal(await page.locator('[data-testid="bottom-bar"]').count(), 0, 'no bottom bar on a wide screen');
@@ -72,9 +76,15 @@ describe('the exported web app', () => {
     await page.close();
   });
 
-  test('a deep link loads its section directly, and the account page shows the server answering', async () => {
+  test('a deep link asks a signed-out visitor to sign in, then opens the section asked for', async () => {
     const page = await browser.newPage({ viewport: PHONE });
     await page.goto(`${server.baseUrl}/account`);
+    await visible(page, 'screen-sign-in').waitFor();
+    assert.equal(new URL(page.url()).searchParams.get('next'), '/account');
+    await visible(page, 'sign-in-email').fill('nav@example.org');
+    await visible(page, 'sign-in-password').fill(FIXTURE_PASSWORD);
+    await visible(page, 'sign-in-submit').click();
+    await visible(page, 'screen-account').waitFor();
     await visible(page, 'server-facts').waitFor();
     assert.match(await visible(page, 'database-state').innerText(), /answering/);
     await page.close();
@@ -104,7 +114,7 @@ describe('when the database is down', () => {
     assert.match(await strip.innerText(), /database is not answering/i);
     assert.doesNotMatch(await page.locator('body').innerText(), /at \w+ \(|Error:|ECONNREFUSED/);
     await visible(page, 'service-retry').waitFor();
-    await visible(page, 'screen-formulas').waitFor();
+    await visible(page, 'screen-sign-in').waitFor();
     await page.screenshot({ path: join(TEST_OUTPUT, 'database-down-phone.png') });
     await page.close();
   });

@@ -15,3 +15,12 @@ export async function launchBrowser(): Promise<Browser> {
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   });
 }
+
+/** Signs in through the real form and waits for the app shell. */
+export async function signInThroughForm(page: import('playwright-core').Page, baseUrl: string, email: string, password: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.locator('[data-testid="sign-in-email"]:visible').fill(email);
+  await page.locator('[data-testid="sign-in-password"]:visible').fill(password);
+  await page.locator('[data-testid="sign-in-submit"]:visible').click();
+  await page.locator('[data-testid="screen-formulas"]:visible').waitFor();
+}

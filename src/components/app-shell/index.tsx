@@ -7,7 +7,6 @@ import { colors, space, WIDE_MIN_WIDTH } from '@/theme';
 import { AppText } from '../ui/text';
 import { NavItem } from './nav-item';
 import { SECTIONS } from './sections';
-import { ServiceStatus } from './service-status';
 
 /**
  * The frame around every section: a bottom bar on a phone, a side rail from WIDE_MIN_WIDTH up.
@@ -22,7 +21,6 @@ export function AppShell() {
   return (
     <Tabs style={[styles.root, wide ? styles.rootWide : styles.rootNarrow]}>
       <View style={styles.main}>
-        <ServiceStatus />
         <TabSlot style={styles.slot} />
       </View>
       <TabList

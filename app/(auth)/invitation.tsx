@@ -1,0 +1,5 @@
+import { InvitationScreen } from '@/screens/auth/invitation';
+
+export default function InvitationRoute() {
+  return <InvitationScreen />;
+}

@@ -1,0 +1,5 @@
+import { ResetPasswordScreen } from '@/screens/auth/reset-password';
+
+export default function ResetPasswordRoute() {
+  return <ResetPasswordScreen />;
+}

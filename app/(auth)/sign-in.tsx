@@ -1,0 +1,5 @@
+import { SignInScreen } from '@/screens/auth/sign-in';
+
+export default function SignInRoute() {
+  return <SignInScreen />;
+}

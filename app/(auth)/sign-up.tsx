@@ -1,0 +1,5 @@
+import { SignUpScreen } from '@/screens/auth/sign-up';
+
+export default function SignUpRoute() {
+  return <SignUpScreen />;
+}

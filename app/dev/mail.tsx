@@ -1,0 +1,5 @@
+import { DevMailScreen } from '@/screens/dev-mail';
+
+export default function DevMailRoute() {
+  return <DevMailScreen />;
+}

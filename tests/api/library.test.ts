@@ -1,0 +1,216 @@
+import assert from 'node:assert/strict';
+import { after, before, describe, test } from 'node:test';
+import { and, count, eq, isNull } from 'drizzle-orm';
+
+import { ingredientPrices, ingredients, species, specifications } from '../../server/db/schema';
+import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
+import { createOrganization, createUser, signedInClient, type Client } from '../helpers/accounts';
+import { startTestApp, type TestApp } from '../helpers/app';
+
+describe('library API', () => {
+  let app: TestApp;
+  let nutritionist: Client;
+  let advisor: Client;
+  let outsider: Client;
+  const ref: Record<string, number> = {};
+
+  before(async () => {
+    app = await startTestApp('library_api');
+    const db = app.database.db;
+    await seedDemoData(db, [REFERENCE_LIBRARY_STEP]);
+    const orgA = await createOrganization(db, 'Library Test Mill');
+    const orgB = await createOrganization(db, 'Library Test Farm', 'farm');
+    await createUser(db, { email: 'nutri@lib.example.org', organizationId: orgA.id, role: 'nutritionist' });
+    await createUser(db, { email: 'advisor@lib.example.org', organizationId: orgA.id, role: 'advisor' });
+    await createUser(db, { email: 'owner@other.example.org', organizationId: orgB.id, role: 'owner' });
+    nutritionist = await signedInClient(app.server.baseUrl, 'nutri@lib.example.org');
+    advisor = await signedInClient(app.server.baseUrl, 'advisor@lib.example.org');
+    outsider = await signedInClient(app.server.baseUrl, 'owner@other.example.org');
+    for (const code of ['maize', 'soybean-meal-48']) {
+      ref[code] = (await db.select().from(ingredients).where(and(isNull(ingredients.organizationId), eq(ingredients.code, code))))[0].id;
+    }
+    for (const code of ['broiler', 'grow-finish-pig']) ref[code] = (await db.select().from(species).where(eq(species.code, code)))[0].id;
+    ref.starter = (await db.select().from(specifications).where(eq(specifications.code, 'nrc1994-broiler-starter')))[0].id;
+  });
+  after(async () => app?.close());
+
+  const countRows = async (table: typeof ingredients | typeof ingredientPrices) => (await app.database.db.select({ n: count() }).from(table))[0].n;
+
+  describe('GET /api/nutrients', () => {
+    test('filters by family: pig lists carry SID amino acids and NE, never poultry AMEn', async () => {
+      const { status, body } = await nutritionist.call('GET', '/api/nutrients?family=swine');
+      assert.equal(status, 200);
+      const ids = body.items.map((n: { id: string }) => n.id);
+      assert.ok(ids.includes('sid_lys') && ids.includes('ne_swine'));
+      assert.ok(!ids.includes('amen_poultry') && !ids.includes('dig_lys'));
+    });
+  });
+
+  describe('GET /api/ingredients', () => {
+    test('searches and pages the reference library', async () => {
+      const { status, body } = await nutritionist.call('GET', '/api/ingredients?library=reference&search=soybean&pageSize=2&page=1');
+      assert.equal(status, 200);
+      assert.equal(body.total, 4, 'soybean meal 44 and 48, full-fat soybean, soybean oil');
+      assert.equal(body.items.length, 2);
+      const second = await nutritionist.call('GET', '/api/ingredients?library=reference&search=soybean&pageSize=2&page=2');
+      assert.equal(second.body.items.length, 2);
+      assert.notEqual(second.body.items[0].id, body.items[0].id);
+    });
+
+    test('answers 400 naming the field for a bad page size', async () => {
+      const { status, body } = await nutritionist.call('GET', '/api/ingredients?pageSize=5000');
+      assert.equal(status, 400);
+      assert.ok(body.error.fieldErrors.pageSize);
+    });
+  });
+
+  describe('copying and editing', () => {
+    test('a copy diverges from the reference: edited values form a new value set and the reference keeps its numbers', async () => {
+      const copy = await nutritionist.call('POST', `/api/ingredients/${ref.maize}/copy`, {});
+      assert.equal(copy.status, 201);
+      assert.equal(copy.body.library, 'own');
+      assert.equal(copy.body.copiedFromId, ref.maize);
+      const edit = await nutritionist.call('PATCH', `/api/ingredients/${copy.body.id}`, {
+        values: { cp: 7.9 },
+        source: { kind: 'lab', name: 'Mill lab, sample 14', analysedOn: '2026-03-10', dryMatterPct: 87.5 },
+        expectedVersion: 1,
+      });
+      assert.equal(edit.status, 200);
+      assert.equal(edit.body.version, 2);
+      const cp = edit.body.nutrientValues.find((v: { nutrientId: string }) => v.nutrientId === 'cp');
+      const set = edit.body.valueSets.find((s: { id: number }) => s.id === cp.valueSetId);
+      assert.equal(cp.value, 7.9);
+      assert.equal(set.sourceKind, 'lab');
+      assert.equal(set.dryMatterPct, 87.5);
+      const reference = await nutritionist.call('GET', `/api/ingredients/${ref.maize}`);
+      assert.equal(reference.body.values.cp, 8.5);
+
+      const stale = await nutritionist.call('PATCH', `/api/ingredients/${copy.body.id}`, { name: 'Old tab', expectedVersion: 1 });
+      assert.equal(stale.status, 409);
+      assert.equal((await nutritionist.call('GET', `/api/ingredients/${copy.body.id}`)).body.name, copy.body.name);
+    });
+
+    test('the reference library cannot be edited or deleted', async () => {
+      const edit = await nutritionist.call('PATCH', `/api/ingredients/${ref.maize}`, { name: 'Changed' });
+      assert.equal(edit.status, 403);
+      assert.equal(edit.body.error.code, 'read_only');
+      assert.equal((await nutritionist.call('DELETE', `/api/ingredients/${ref.maize}`)).status, 403);
+    });
+
+    test('bad values answer 400 per field and create nothing', async () => {
+      const before = await countRows(ingredients);
+      const unknown = await nutritionist.call('POST', '/api/ingredients', { name: 'Oats', category: 'cereal_grain', values: { cp: 11, protein: 3 }, source: { kind: 'estimate', name: 'Guess', dryMatterPct: 89 } });
+      assert.equal(unknown.status, 400);
+      assert.ok(unknown.body.error.fieldErrors['values.protein']);
+      const tooMuch = await nutritionist.call('POST', '/api/ingredients', { name: 'Oats', category: 'cereal_grain', values: { cp: 110 }, source: { kind: 'estimate', name: 'Guess', dryMatterPct: 89 } });
+      assert.equal(tooMuch.status, 400);
+      assert.match(tooMuch.body.error.fieldErrors['values.cp'][0], /at most 100 %/);
+      const noSource = await nutritionist.call('POST', '/api/ingredients', { name: 'Oats', category: 'cereal_grain', values: { cp: 11 } });
+      assert.equal(noSource.status, 400);
+      assert.ok(noSource.body.error.fieldErrors.source);
+      assert.equal(await countRows(ingredients), before);
+    });
+
+    test('an advisor records a lab analysis on a dry-matter basis; it is stored as fed', async () => {
+      const copy = await nutritionist.call('POST', `/api/ingredients/${ref['soybean-meal-48']}/copy`, { name: 'Soybean meal, lot 7' });
+      const lab = await advisor.call('POST', `/api/ingredients/${copy.body.id}/lab-analyses`, { laboratory: 'County lab', analysedOn: '2026-03-12', dryMatterPct: 90, basis: 'dry_matter', values: { cp: 52 } });
+      assert.equal(lab.status, 201);
+      // 52 % of DM at 90 % DM = 46.8 % as fed (value × DM / 100).
+      assert.ok(Math.abs(lab.body.values.cp - 46.8) < 1e-9);
+      assert.equal(lab.body.values.dm, 90);
+      assert.equal((await advisor.call('PATCH', `/api/ingredients/${copy.body.id}`, { name: 'x' })).status, 403, 'advisors import lab values, they do not edit the library');
+    });
+  });
+
+  describe('insect meals', () => {
+    const offalMeal = {
+      name: 'Larvae meal on poultry offal',
+      category: 'insect_meal',
+      insect: { species: 'hermetia_illucens', processing: 'defatted', substrate: 'Poultry processing offal', substrateOrigin: 'animal', substrateAnimals: ['chicken'] },
+      values: { cp: 55 },
+      source: { kind: 'lab', name: 'Mill lab', analysedOn: '2026-03-01', dryMatterPct: 95 },
+    };
+
+    test('a substrate of animal origin must name its animals', async () => {
+      const { status, body } = await nutritionist.call('POST', '/api/ingredients', { ...offalMeal, insect: { ...offalMeal.insect, substrateAnimals: [] } });
+      assert.equal(status, 400);
+      assert.match(body.error.fieldErrors['insect.substrateAnimals'][0], /name the animals/);
+    });
+
+    test('a meal reared on chicken offal is not offered for broilers, with the reason, but is for pigs', async () => {
+      const created = await nutritionist.call('POST', '/api/ingredients', offalMeal);
+      assert.equal(created.status, 201);
+      assert.deepEqual(created.body.refusals.map((r: { family: string }) => r.family), ['poultry']);
+      const forBroilers = await nutritionist.call('GET', `/api/ingredients?category=insect_meal&speciesId=${ref.broiler}`);
+      const row = forBroilers.body.items.find((i: { id: number }) => i.id === created.body.id);
+      assert.equal(row.offered.allowed, false);
+      assert.match(row.offered.message, /Broiler chicken/);
+      const forPigs = await nutritionist.call('GET', `/api/ingredients?category=insect_meal&speciesId=${ref['grow-finish-pig']}`);
+      assert.equal(forPigs.body.items.find((i: { id: number }) => i.id === created.body.id).offered.allowed, true);
+
+      const cap = { scope: 'ingredient', ingredientId: created.body.id, maxPct: 5, source: 'Own trial' };
+      const broilerSpec = await nutritionist.call('POST', '/api/specifications', { speciesId: ref.broiler, name: 'With offal meal', source: 'Own', bounds: [], caps: [cap] });
+      assert.equal(broilerSpec.status, 400);
+      assert.match(broilerSpec.body.error.message, /cannot go into diets for Broiler chicken/);
+      const pigSpec = await nutritionist.call('POST', '/api/specifications', { speciesId: ref['grow-finish-pig'], name: 'With offal meal', source: 'Own', bounds: [{ nutrientId: 'sid_lys', min: 0.98 }], caps: [cap] });
+      assert.equal(pigSpec.status, 201);
+      const starter = await nutritionist.call('GET', `/api/specifications/${ref.starter}`);
+      assert.ok(starter.body.refusedIngredients.some((r: { id: number }) => r.id === created.body.id));
+    });
+  });
+
+  describe('POST /api/prices', () => {
+    test('saves many prices at once; one foreign id saves none; a back-dated price does not replace the current one', async () => {
+      const a = (await nutritionist.call('POST', `/api/ingredients/${ref.maize}/copy`, { name: 'Maize A' })).body.id;
+      const b = (await nutritionist.call('POST', `/api/ingredients/${ref['soybean-meal-48']}/copy`, { name: 'SBM A' })).body.id;
+      const foreign = (await outsider.call('POST', `/api/ingredients/${ref.maize}/copy`, {})).body.id;
+      const before = await countRows(ingredientPrices);
+      const refused = await nutritionist.call('POST', '/api/prices', { effectiveOn: '2026-03-16', items: [{ ingredientId: a, pricePerKg: 0.23 }, { ingredientId: foreign, pricePerKg: 0.3 }] });
+      assert.equal(refused.status, 404);
+      assert.equal(await countRows(ingredientPrices), before, 'nothing half-written');
+
+      const saved = await nutritionist.call('POST', '/api/prices', { effectiveOn: '2026-03-16', items: [{ ingredientId: a, pricePerKg: 0.23 }, { ingredientId: b, pricePerKg: 0.505 }] });
+      assert.equal(saved.status, 201);
+      assert.equal(saved.body.saved, 2);
+      await nutritionist.call('POST', '/api/prices', { effectiveOn: '2026-03-09', items: [{ ingredientId: a, pricePerKg: 0.22 }] });
+      const maize = await nutritionist.call('GET', `/api/ingredients/${a}`);
+      assert.equal(maize.body.pricePerKg, 0.23);
+      assert.equal(maize.body.priceDate, '2026-03-16');
+      const history = await nutritionist.call('GET', `/api/prices?ingredientId=${a}`);
+      assert.deepEqual(history.body.items.map((p: { effectiveOn: string }) => p.effectiveOn), ['2026-03-16', '2026-03-09']);
+
+      const negative = await nutritionist.call('POST', '/api/prices', { effectiveOn: '2026-03-16', items: [{ ingredientId: a, pricePerKg: -1 }] });
+      assert.equal(negative.status, 400);
+      assert.ok(negative.body.error.fieldErrors['items[0].pricePerKg']);
+    });
+  });
+
+  describe('specifications', () => {
+    test('copy and adjust: the copy changes, the reference does not; set bounds keep their confidence', async () => {
+      const copy = await nutritionist.call('POST', `/api/specifications/${ref.starter}/copy`, { name: 'Our starter' });
+      assert.equal(copy.status, 201);
+      assert.equal(copy.body.library, 'own');
+      const bounds = copy.body.bounds.map((b: { nutrientId: string; min: number | null; max: number | null; note: string | null }) => ({ nutrientId: b.nutrientId, min: b.nutrientId === 'lys' ? 1.28 : b.min, max: b.max, note: b.note }));
+      const body = { speciesId: copy.body.species.id, phaseId: copy.body.phase.id, name: 'Our starter', source: copy.body.source, bounds, ratios: [], caps: [], expectedVersion: 1 };
+      const saved = await nutritionist.call('PUT', `/api/specifications/${copy.body.id}`, body);
+      assert.equal(saved.status, 200);
+      const lys = saved.body.bounds.find((b: { nutrientId: string }) => b.nutrientId === 'lys');
+      const cp = saved.body.bounds.find((b: { nutrientId: string }) => b.nutrientId === 'cp');
+      assert.equal(lys.min, 1.28);
+      assert.equal(lys.confidence, null, 'a changed bound is the organization’s own');
+      assert.equal(cp.confidence, 'verified');
+      const reference = await nutritionist.call('GET', `/api/specifications/${ref.starter}`);
+      assert.equal(reference.body.bounds.find((b: { nutrientId: string }) => b.nutrientId === 'lys').min, 1.1);
+      assert.equal((await nutritionist.call('PUT', `/api/specifications/${ref.starter}`, body)).status, 403);
+    });
+
+    test('refuses a pig nutrient in a broiler specification and a minimum above its maximum', async () => {
+      const wrongBasis = await nutritionist.call('POST', '/api/specifications', { speciesId: ref.broiler, name: 'Mixed', source: 'Own', bounds: [{ nutrientId: 'sid_lys', min: 1 }] });
+      assert.equal(wrongBasis.status, 400);
+      assert.match(wrongBasis.body.error.fieldErrors['bounds[0].nutrientId'][0], /not used in poultry diets/);
+      const inverted = await nutritionist.call('POST', '/api/specifications', { speciesId: ref.broiler, name: 'Inverted', source: 'Own', bounds: [{ nutrientId: 'cp', min: 23, max: 20 }] });
+      assert.equal(inverted.status, 400);
+      assert.ok(inverted.body.error.fieldErrors['bounds[0].min']);
+    });
+  });
+});

@@ -3,3 +3,4 @@ export * from './seed-runs';
 export * from './accounts';
 export * from './library';
 export * from './requirements';
+export * from './formulas';

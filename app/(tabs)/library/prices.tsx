@@ -1,0 +1,5 @@
+import { PriceUpdateScreen } from '@/screens/library/prices';
+
+export default function PricesRoute() {
+  return <PriceUpdateScreen />;
+}

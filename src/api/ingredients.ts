@@ -1,0 +1,61 @@
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import type { IngredientCategory, LibraryName } from '@/shared/library-terms';
+import type { CreateIngredientInput, IngredientDetail, IngredientSummary, UpdateIngredientInput } from '@/shared/schemas/ingredients';
+import type { Page } from '@/shared/schemas/library-common';
+import type { RecordPricesInput, RecordPricesResult } from '@/shared/schemas/prices';
+
+import { apiClient } from './client';
+import { STALE } from './stale';
+
+export type IngredientListParams = { library: LibraryName; search?: string; category?: IngredientCategory; page?: number; pageSize?: number };
+
+export const ingredientKeys = {
+  all: ['ingredients'] as const,
+  list: (params: IngredientListParams) => [...ingredientKeys.all, 'list', params] as const,
+  detail: (id: number) => [...ingredientKeys.all, 'detail', id] as const,
+};
+
+function query(params: Record<string, string | number | undefined>): string {
+  const pairs = Object.entries(params).filter(([, v]) => v !== undefined && v !== '').map(([k, v]) => `${k}=${encodeURIComponent(String(v))}`);
+  return pairs.length ? `?${pairs.join('&')}` : '';
+}
+
+export const ingredientsQueryOptions = (params: IngredientListParams) =>
+  queryOptions({
+    queryKey: ingredientKeys.list(params),
+    queryFn: ({ signal }) => apiClient.get<Page<IngredientSummary>>(`/api/ingredients${query(params)}`, signal),
+    staleTime: STALE.SECONDS.THIRTY,
+    placeholderData: keepPreviousData,
+  });
+
+export const useIngredientsQuery = (params: IngredientListParams) => useQuery(ingredientsQueryOptions(params));
+
+export const ingredientQueryOptions = (id: number) =>
+  queryOptions({ queryKey: ingredientKeys.detail(id), queryFn: ({ signal }) => apiClient.get<IngredientDetail>(`/api/ingredients/${id}`, signal), staleTime: STALE.SECONDS.THIRTY });
+
+export const useIngredientQuery = (id: number) => useQuery({ ...ingredientQueryOptions(id), enabled: id > 0 });
+
+function useIngredientMutation<TInput>(fn: (input: TInput) => Promise<IngredientDetail>) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: fn,
+    onSuccess: (detail) => {
+      queryClient.setQueryData(ingredientKeys.detail(detail.id), detail);
+      return queryClient.invalidateQueries({ queryKey: [...ingredientKeys.all, 'list'] });
+    },
+  });
+}
+
+export const useIngredientCreateMutation = () => useIngredientMutation((input: CreateIngredientInput) => apiClient.post<IngredientDetail>('/api/ingredients', input));
+export const useIngredientUpdateMutation = (id: number) => useIngredientMutation((input: UpdateIngredientInput) => apiClient.patch<IngredientDetail>(`/api/ingredients/${id}`, input));
+export const useIngredientCopyMutation = () => useIngredientMutation((id: number) => apiClient.post<IngredientDetail>(`/api/ingredients/${id}/copy`, {}));
+
+/** Many prices at once, all on one date. */
+export function usePricesRecordMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: RecordPricesInput) => apiClient.post<RecordPricesResult>('/api/prices', input),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: ingredientKeys.all }),
+  });
+}

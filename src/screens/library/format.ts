@@ -1,0 +1,14 @@
+import type { NutrientUnit } from '@/shared/library-terms';
+
+/** Digits shown per unit: energy in whole kcal, percentages to two places (three below 0.1 %). */
+export function formatValue(value: number | null | undefined, unit: NutrientUnit): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  if (unit === 'kcal/kg' || unit === 'IU/kg' || unit === 'mg/kg') return Math.round(value).toLocaleString('en');
+  if (unit === 'MJ/kg') return value.toFixed(2);
+  if (unit === '%' && Math.abs(value) < 0.1 && value !== 0) return value.toFixed(3);
+  return value.toFixed(2);
+}
+
+export function formatPrice(value: number | null): string {
+  return value === null ? 'no price' : value.toFixed(3);
+}

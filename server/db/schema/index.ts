@@ -4,3 +4,4 @@ export * from './accounts';
 export * from './library';
 export * from './requirements';
 export * from './formulas';
+export * from './supply';

@@ -13,6 +13,7 @@ import type { DevInbox } from './mail/dev-inbox';
 import type { Mailer } from './mail/mailer';
 import { authRouter } from './routes/auth';
 import { devMailRouter } from './routes/dev-mail';
+import { formulasRouter } from './routes/formulas';
 import { formulationRouter } from './routes/formulation';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
@@ -69,6 +70,7 @@ export function createApp({ db, mailer, devInbox, publicUrl, secureCookies = fal
   api.use('/members', membersRouter({ db }));
   api.use('/dev/mail', devMailRouter({ inbox: devInbox }));
   api.use('/', formulationRouter());
+  api.use('/formulas', formulasRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
 

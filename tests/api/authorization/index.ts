@@ -1,3 +1,4 @@
 // Every area's table of routes and expected answers. A new area adds one line here.
 export { accountsRules } from './accounts.rules';
 export { formulationRules } from './formulation.rules';
+export { formulasRules } from './formulas.rules';

@@ -1,0 +1,392 @@
+import { and, asc, desc, eq, inArray, isNotNull, isNull, max, or } from 'drizzle-orm';
+import type { z } from 'zod';
+
+import { priceSweep, solveFormula } from '../../../src/shared/engine';
+import { buildFormulaProblem, capWarnings, compareSolves, ingredientKey, inputsFromSpecification, type LibraryIngredient } from '../../../src/shared/formula-problem';
+import type { OriginAnimal } from '../../../src/shared/library-terms';
+import type {
+  ApprovalState,
+  ApprovedFormula,
+  createFormulaInput,
+  FormulaDetail,
+  FormulaInputs,
+  FormulaPriceSweep,
+  formulaPriceSweepInput,
+  FormulaSolve,
+  FormulaSummary,
+  NutrientInfo,
+  updateFormulaInput,
+  VersionComparison,
+  VersionDetail,
+  VersionSummary,
+} from '../../../src/shared/schemas/formulas';
+import { badRequest, HttpError, notFound } from '../../http/errors';
+import type { Db } from '../client';
+import {
+  formulas,
+  formulaVersions,
+  ingredientNutrientValues,
+  ingredients,
+  nutrients,
+  species as speciesTable,
+  specifications,
+  users,
+  type FormulaRow,
+  type FormulaVersionRow,
+} from '../schema';
+import { getSpecification } from './specifications';
+
+type CreateInput = z.output<typeof createFormulaInput>;
+type UpdateInput = z.output<typeof updateFormulaInput>;
+type SweepInput = z.output<typeof formulaPriceSweepInput>;
+
+// ---------------------------------------------------------------------------
+// Library reads (read-only helpers over the library tables)
+// ---------------------------------------------------------------------------
+
+/** The chosen ingredients this organization can see (own or reference), with every value per kg as fed. */
+async function loadLibrary(db: Db, organizationId: number, ids: number[]): Promise<Map<number, LibraryIngredient>> {
+  const out = new Map<number, LibraryIngredient>();
+  if (ids.length === 0) return out;
+  const rows = await db
+    .select()
+    .from(ingredients)
+    .where(and(inArray(ingredients.id, ids), or(isNull(ingredients.organizationId), eq(ingredients.organizationId, organizationId))));
+  const values = rows.length ? await db.select().from(ingredientNutrientValues).where(inArray(ingredientNutrientValues.ingredientId, rows.map((r) => r.id))) : [];
+  for (const r of rows) {
+    out.set(r.id, {
+      id: r.id,
+      name: r.name,
+      category: r.category,
+      insectSpecies: r.insectSpecies,
+      substrate: r.substrate,
+      substrateOrigin: r.substrateOrigin,
+      substrateAnimals: (r.substrateAnimals ?? null) as OriginAnimal[] | null,
+      pricePerKg: r.pricePerKg === null ? null : Number(r.pricePerKg),
+      priceDate: r.priceDate,
+      version: r.version,
+      values: {},
+    });
+  }
+  for (const v of values) out.get(v.ingredientId)!.values[v.nutrientId] = v.value;
+  return out;
+}
+
+async function loadNutrientInfo(db: Db): Promise<Map<string, NutrientInfo>> {
+  const rows = await db.select({ id: nutrients.id, name: nutrients.name, unit: nutrients.unit }).from(nutrients);
+  return new Map(rows.map((n) => [n.id, n]));
+}
+
+async function userName(db: Db, userId: string): Promise<string> {
+  const [u] = await db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, userId));
+  return u?.name || u?.email || 'unknown';
+}
+
+// ---------------------------------------------------------------------------
+// Formulas
+// ---------------------------------------------------------------------------
+
+async function findFormula(db: Db, organizationId: number, id: number): Promise<FormulaRow> {
+  const [row] = await db.select().from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId)));
+  if (!row) throw notFound('formula', id);
+  return row;
+}
+
+/** Versions of some formulas, with each approval marked current (the newest approval) or superseded. */
+function summarizeVersions(rows: FormulaVersionRow[]): VersionSummary[] {
+  const current = new Map<number, FormulaVersionRow>();
+  for (const v of rows) {
+    if (!v.approvedAt) continue;
+    const best = current.get(v.formulaId);
+    if (!best || v.approvedAt > best.approvedAt! || (v.approvedAt.getTime() === best.approvedAt!.getTime() && v.id > best.id)) current.set(v.formulaId, v);
+  }
+  return rows.map((v) => {
+    const approval: ApprovalState = !v.approvedAt ? 'not_approved' : current.get(v.formulaId)?.id === v.id ? 'current' : 'superseded';
+    return {
+      id: v.id,
+      formulaId: v.formulaId,
+      number: v.number,
+      status: v.status,
+      costPerTonne: v.costPerTonne,
+      note: v.note,
+      createdBy: v.createdByName,
+      createdAt: v.createdAt.toISOString(),
+      approvedBy: v.approvedByName,
+      approvedAt: v.approvedAt ? v.approvedAt.toISOString() : null,
+      approval,
+    };
+  });
+}
+
+const versionColumns = {
+  id: formulaVersions.id,
+  formulaId: formulaVersions.formulaId,
+  organizationId: formulaVersions.organizationId,
+  number: formulaVersions.number,
+  status: formulaVersions.status,
+  costPerTonne: formulaVersions.costPerTonne,
+  note: formulaVersions.note,
+  createdByUserId: formulaVersions.createdByUserId,
+  createdByName: formulaVersions.createdByName,
+  createdAt: formulaVersions.createdAt,
+  approvedByUserId: formulaVersions.approvedByUserId,
+  approvedByName: formulaVersions.approvedByName,
+  approvedAt: formulaVersions.approvedAt,
+};
+
+/** Version rows without their (large) snapshot. */
+async function versionRows(db: Db, organizationId: number, formulaIds: number[]): Promise<FormulaVersionRow[]> {
+  if (formulaIds.length === 0) return [];
+  const rows = await db
+    .select(versionColumns)
+    .from(formulaVersions)
+    .where(and(eq(formulaVersions.organizationId, organizationId), inArray(formulaVersions.formulaId, formulaIds)))
+    .orderBy(desc(formulaVersions.number));
+  return rows as FormulaVersionRow[];
+}
+
+async function summaries(db: Db, organizationId: number, rows: FormulaRow[]): Promise<(FormulaSummary & { versions: VersionSummary[] })[]> {
+  const versions = summarizeVersions(await versionRows(db, organizationId, rows.map((r) => r.id)));
+  const speciesIds = [...new Set(rows.map((r) => r.speciesId).filter((id): id is number => id !== null))];
+  const speciesRows = speciesIds.length ? await db.select().from(speciesTable).where(inArray(speciesTable.id, speciesIds)) : [];
+  const speciesById = new Map(speciesRows.map((s) => [s.id, s]));
+  const specIds = [...new Set(rows.map((r) => r.specificationId).filter((id): id is number => id !== null))];
+  const specRows = specIds.length ? await db.select({ id: specifications.id, name: specifications.name }).from(specifications).where(inArray(specifications.id, specIds)) : [];
+  const specById = new Map(specRows.map((s) => [s.id, s]));
+  return rows.map((r) => {
+    const own = versions.filter((v) => v.formulaId === r.id);
+    const s = r.speciesId ? speciesById.get(r.speciesId) : undefined;
+    return {
+      id: r.id,
+      name: r.name,
+      species: s ? { id: s.id, name: s.name, family: s.family } : null,
+      specification: r.specificationId && specById.has(r.specificationId) ? specById.get(r.specificationId)! : null,
+      batchKg: r.inputs.batchKg,
+      ingredientCount: r.inputs.ingredients.length,
+      revision: r.revision,
+      updatedAt: r.updatedAt.toISOString(),
+      latestVersion: own[0] ?? null,
+      approvedVersion: own.find((v) => v.approval === 'current') ?? null,
+      versions: own,
+    };
+  });
+}
+
+export async function listFormulas(db: Db, organizationId: number): Promise<FormulaSummary[]> {
+  const rows = await db.select().from(formulas).where(eq(formulas.organizationId, organizationId)).orderBy(asc(formulas.name), asc(formulas.id));
+  return (await summaries(db, organizationId, rows)).map(({ versions: _versions, ...s }) => s);
+}
+
+export async function getFormula(db: Db, organizationId: number, id: number): Promise<FormulaDetail> {
+  const row = await findFormula(db, organizationId, id);
+  const [summary] = await summaries(db, organizationId, [row]);
+  return { ...summary, inputs: row.inputs };
+}
+
+/** Checks what a formula's inputs name against the library: the same refusals a solve would give. */
+async function checkInputs(db: Db, organizationId: number, inputs: FormulaInputs, speciesOf: { name: string; family: 'poultry' | 'swine' } | null) {
+  const library = await loadLibrary(db, organizationId, inputs.ingredients.map((i) => i.ingredientId));
+  const built = buildFormulaProblem(
+    // Prices are asked for at solve time, not when saving a draft.
+    { ...inputs, ingredients: inputs.ingredients.map((i) => ({ ...i, pricePerKg: i.pricePerKg ?? 0 })) },
+    { library, nutrients: await loadNutrientInfo(db), species: speciesOf },
+  );
+  if (!built.ok) throw badRequest(built.message, built.fieldErrors);
+}
+
+async function speciesOfSpecification(db: Db, organizationId: number, specificationId: number | null) {
+  if (!specificationId) return { spec: null, species: null };
+  const spec = await getSpecification(db, organizationId, specificationId).catch(() => null);
+  return { spec, species: spec ? spec.species : null };
+}
+
+export async function createFormula(db: Db, organizationId: number, userId: string, input: CreateInput): Promise<number> {
+  const spec = await getSpecification(db, organizationId, input.specificationId).catch((e) => {
+    if (e instanceof HttpError && e.status === 404) throw badRequest(`specificationId: no specification with id ${input.specificationId}`, { specificationId: [`no specification with id ${input.specificationId}`] });
+    throw e;
+  });
+  const filled = inputsFromSpecification(spec, input.ingredients, input.batchKg);
+  const inputs: FormulaInputs = {
+    ...filled,
+    nutrients: input.nutrients ?? filled.nutrients,
+    ratios: input.ratios ?? filled.ratios,
+    groups: input.groups ?? filled.groups,
+  };
+  await checkInputs(db, organizationId, inputs, spec.species);
+  const [{ id }] = await db
+    .insert(formulas)
+    .values({ organizationId, name: input.name, speciesId: spec.species.id, specificationId: spec.id, inputs, createdByUserId: userId })
+    .$returningId();
+  return id;
+}
+
+export async function updateFormula(db: Db, organizationId: number, id: number, input: UpdateInput): Promise<void> {
+  const row = await findFormula(db, organizationId, id);
+  const { species } = await speciesOfSpecification(db, organizationId, row.specificationId);
+  await checkInputs(db, organizationId, input.inputs, species);
+  await db.transaction(async (tx) => {
+    const [locked] = await tx.select().from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId))).for('update');
+    if (!locked) throw notFound('formula', id);
+    if (input.expectedRevision !== undefined && input.expectedRevision !== locked.revision) {
+      throw new HttpError(409, 'version_conflict', `This formula was changed by someone else since you opened it (now revision ${locked.revision}). Reload it; your edit was not saved.`);
+    }
+    await tx.update(formulas).set({ name: input.name ?? locked.name, inputs: input.inputs, revision: locked.revision + 1 }).where(eq(formulas.id, id));
+  });
+}
+
+// ---------------------------------------------------------------------------
+// Solving
+// ---------------------------------------------------------------------------
+
+/** Solves inputs of a formula with today's library values and prices; nothing is saved. */
+async function solveWith(db: Db, organizationId: number, row: FormulaRow, inputs: FormulaInputs): Promise<FormulaSolve> {
+  const { spec, species } = await speciesOfSpecification(db, organizationId, row.specificationId);
+  const library = await loadLibrary(db, organizationId, inputs.ingredients.map((i) => i.ingredientId));
+  const built = buildFormulaProblem(inputs, { library, nutrients: await loadNutrientInfo(db), species, name: row.name });
+  if (!built.ok) throw badRequest(built.message, built.fieldErrors);
+  const result = solveFormula(built.problem);
+  if (result.status === 'invalid') throw badRequest(result.message, Object.fromEntries(result.errors.map((e) => [e.field, [e.message]])));
+  return {
+    basis: 'as fed',
+    specification: spec ? { id: spec.id, name: spec.name, version: spec.version, source: spec.source } : null,
+    species,
+    ingredients: built.used,
+    nutrients: built.nutrients,
+    problem: built.problem,
+    result,
+    capWarnings: capWarnings(inputs, result),
+    solvedAt: new Date().toISOString(),
+  };
+}
+
+export async function solveFormulaInputs(db: Db, organizationId: number, id: number, inputs?: FormulaInputs): Promise<FormulaSolve> {
+  const row = await findFormula(db, organizationId, id);
+  return solveWith(db, organizationId, row, inputs ?? row.inputs);
+}
+
+/**
+ * Solves and keeps: the inputs become the formula's current ones and an immutable version is written
+ * with the snapshot, in one transaction (a failed write leaves neither).
+ */
+export async function keepVersion(db: Db, organizationId: number, userId: string, id: number, inputs: FormulaInputs | undefined, note: string | null | undefined): Promise<number> {
+  const row = await findFormula(db, organizationId, id);
+  const used = inputs ?? row.inputs;
+  const solved = await solveWith(db, organizationId, row, used);
+  const who = await userName(db, userId);
+  return db.transaction(async (tx) => {
+    const [locked] = await tx.select({ id: formulas.id, revision: formulas.revision, name: formulas.name }).from(formulas).where(eq(formulas.id, id)).for('update');
+    if (!locked) throw notFound('formula', id);
+    if (inputs) await tx.update(formulas).set({ inputs, revision: locked.revision + 1 }).where(eq(formulas.id, id));
+    const [{ last }] = await tx.select({ last: max(formulaVersions.number) }).from(formulaVersions).where(eq(formulaVersions.formulaId, id));
+    const status = solved.result.status as FormulaVersionRow['status'];
+    const [{ id: versionId }] = await tx
+      .insert(formulaVersions)
+      .values({
+        formulaId: id,
+        organizationId,
+        number: (last ?? 0) + 1,
+        status,
+        costPerTonne: solved.result.status === 'optimal' ? solved.result.costPerTonne : null,
+        note: note ?? null,
+        snapshot: { ...solved, inputs: used, formulaName: locked.name },
+        createdByUserId: userId,
+        createdByName: who,
+      })
+      .$returningId();
+    return versionId;
+  });
+}
+
+export async function listVersions(db: Db, organizationId: number, id: number): Promise<VersionSummary[]> {
+  await findFormula(db, organizationId, id);
+  return summarizeVersions(await versionRows(db, organizationId, [id]));
+}
+
+export async function getVersion(db: Db, organizationId: number, formulaId: number, versionId: number): Promise<VersionDetail> {
+  await findFormula(db, organizationId, formulaId);
+  const [row] = await db.select().from(formulaVersions).where(and(eq(formulaVersions.id, versionId), eq(formulaVersions.formulaId, formulaId), eq(formulaVersions.organizationId, organizationId)));
+  if (!row) throw notFound('version', versionId);
+  const summary = summarizeVersions(await versionRows(db, organizationId, [formulaId])).find((v) => v.id === versionId)!;
+  return { ...summary, snapshot: row.snapshot };
+}
+
+/**
+ * Approves a version. Only a version with a mix (optimal) can be approved; approving a newer one makes
+ * it the version mill operators see, and the earlier approval is kept as superseded.
+ */
+export async function approveVersion(db: Db, organizationId: number, userId: string, formulaId: number, versionId: number): Promise<void> {
+  await findFormula(db, organizationId, formulaId);
+  const who = await userName(db, userId);
+  await db.transaction(async (tx) => {
+    const [row] = await tx
+      .select(versionColumns)
+      .from(formulaVersions)
+      .where(and(eq(formulaVersions.id, versionId), eq(formulaVersions.formulaId, formulaId), eq(formulaVersions.organizationId, organizationId)))
+      .for('update');
+    if (!row) throw notFound('version', versionId);
+    if (row.status !== 'optimal') throw new HttpError(409, 'not_approvable', `Version ${row.number} has no mix (the specification could not be met), so it cannot be approved. Change the bounds, solve again and keep the new version.`);
+    if (row.approvedAt) throw new HttpError(409, 'already_approved', `Version ${row.number} was already approved by ${row.approvedByName} on ${row.approvedAt.toISOString().slice(0, 10)}.`);
+    await tx.update(formulaVersions).set({ approvedAt: new Date(), approvedByUserId: userId, approvedByName: who }).where(eq(formulaVersions.id, versionId));
+  });
+}
+
+// ---------------------------------------------------------------------------
+// What mill operators see: the current approved version of each formula, nothing else.
+// ---------------------------------------------------------------------------
+
+export async function listApproved(db: Db, organizationId: number): Promise<ApprovedFormula[]> {
+  const approvedRows = (await db
+    .select(versionColumns)
+    .from(formulaVersions)
+    .where(and(eq(formulaVersions.organizationId, organizationId), isNotNull(formulaVersions.approvedAt)))) as FormulaVersionRow[];
+  const current = summarizeVersions(approvedRows).filter((v) => v.approval === 'current');
+  if (current.length === 0) return [];
+  const rows = await db.select().from(formulas).where(and(eq(formulas.organizationId, organizationId), inArray(formulas.id, current.map((v) => v.formulaId))));
+  const speciesIds = [...new Set(rows.map((r) => r.speciesId).filter((x): x is number => x !== null))];
+  const speciesRows = speciesIds.length ? await db.select().from(speciesTable).where(inArray(speciesTable.id, speciesIds)) : [];
+  return rows
+    .map((r) => ({
+      formulaId: r.id,
+      formulaName: r.name,
+      version: current.find((v) => v.formulaId === r.id)!,
+      species: speciesRows.find((s) => s.id === r.speciesId) ? { name: speciesRows.find((s) => s.id === r.speciesId)!.name } : null,
+      batchKg: r.inputs.batchKg,
+    }))
+    .sort((a, b) => a.formulaName.localeCompare(b.formulaName));
+}
+
+/** One current approved version (the batch sheet's source); any other version answers 404. */
+export async function getApprovedVersion(db: Db, organizationId: number, versionId: number): Promise<VersionDetail> {
+  const [row] = await db.select().from(formulaVersions).where(and(eq(formulaVersions.id, versionId), eq(formulaVersions.organizationId, organizationId), isNotNull(formulaVersions.approvedAt)));
+  if (!row) throw notFound('approved version', versionId);
+  const summary = summarizeVersions(await versionRows(db, organizationId, [row.formulaId])).find((v) => v.id === versionId)!;
+  if (summary.approval !== 'current') throw notFound('approved version', versionId);
+  return { ...summary, snapshot: row.snapshot };
+}
+
+// ---------------------------------------------------------------------------
+// Insect meal value and comparison
+// ---------------------------------------------------------------------------
+
+export async function sweepIngredientPrice(db: Db, organizationId: number, id: number, input: SweepInput): Promise<FormulaPriceSweep> {
+  const row = await findFormula(db, organizationId, id);
+  const inputs = input.inputs ?? row.inputs;
+  if (!inputs.ingredients.some((i) => i.ingredientId === input.ingredientId)) {
+    throw badRequest('ingredientId: add this ingredient to the formula first', { ingredientId: ['add this ingredient to the formula first'] });
+  }
+  const solved = await solveWith(db, organizationId, row, inputs);
+  const used = solved.ingredients.find((u) => u.ingredientId === input.ingredientId)!;
+  const fromPrice = input.fromPrice ?? 0;
+  const toPrice = input.toPrice ?? Math.max(0.5, Math.round(used.pricePerKg * 2 * 100) / 100);
+  if (toPrice <= fromPrice) throw badRequest('toPrice: the highest price must be above the lowest', { toPrice: ['the highest price must be above the lowest'] });
+  const outcome = priceSweep({ problem: solved.problem, ingredient: ingredientKey(input.ingredientId), fromPrice, toPrice, steps: input.steps ?? 41 });
+  if (outcome.status === 'invalid') throw badRequest(outcome.message, Object.fromEntries(outcome.errors.map((e) => [e.field, [e.message]])));
+  return { ingredientId: used.ingredientId, ingredientName: used.name, currentPricePerKg: used.pricePerKg, batchKg: inputs.batchKg, sweep: outcome };
+}
+
+export async function compareVersions(db: Db, organizationId: number, formulaId: number, a: number, b: number): Promise<VersionComparison> {
+  const [va, vb] = [await getVersion(db, organizationId, formulaId, a), await getVersion(db, organizationId, formulaId, b)];
+  const { snapshot: sa, ...summaryA } = va;
+  const { snapshot: sb, ...summaryB } = vb;
+  return { a: summaryA, b: summaryB, ...compareSolves(sa, sb) };
+}

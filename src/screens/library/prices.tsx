@@ -21,9 +21,10 @@ const decimal = (text: string) => Number(text.trim().replace(',', '.'));
 
 const schema = yup.object({
   effectiveOn: yup.string().required('Enter the date the prices apply from.').matches(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.'),
-  prices: yup.object().test('prices', 'Check the prices', function check(prices: Record<string, string> | undefined) {
+  // Formik hands empty fields to yup as undefined.
+  prices: yup.object().test('prices', 'Check the prices', function check(prices: Record<string, string | undefined> | undefined) {
     for (const [id, text] of Object.entries(prices ?? {})) {
-      if (!text.trim()) continue;
+      if (!text?.trim()) continue;
       const v = decimal(text);
       if (!Number.isFinite(v) || v < 0) return this.createError({ path: `prices.${id}`, message: 'Enter a price of 0 or more, e.g. 0.245.' });
     }

@@ -3,7 +3,7 @@ import { Router } from 'express';
 import { copyIngredientInput, createIngredientInput, labAnalysisInput, listIngredientsQuery, updateIngredientInput } from '../../src/shared/schemas/ingredients';
 import { idParams } from '../../src/shared/schemas/library-common';
 import type { Db } from '../db/client';
-import { addLabAnalysis, copyIngredient, createIngredient, deleteIngredient, getIngredient, listIngredients, updateIngredient } from '../db/queries/ingredients';
+import { addLabAnalysis, copyIngredient, copyReferenceLibrary, createIngredient, deleteIngredient, getIngredient, listIngredients, updateIngredient } from '../db/queries/ingredients';
 import { access, requireMembership } from '../http/access';
 
 /**
@@ -16,6 +16,11 @@ export function ingredientsRouter({ db }: { db: Db }): Router {
   router.get('/', access.member('library:read'), async (req, res) => {
     const { organizationId } = requireMembership(req);
     res.json(await listIngredients(db, organizationId, listIngredientsQuery.parse(req.query)));
+  });
+
+  router.post('/copy-reference', access.member('library:write'), async (req, res) => {
+    const { organizationId } = requireMembership(req);
+    res.status(201).json({ copied: await copyReferenceLibrary(db, organizationId) });
   });
 
   router.get('/:id', access.member('library:read'), async (req, res) => {

@@ -51,6 +51,15 @@ export const useIngredientCreateMutation = () => useIngredientMutation((input: C
 export const useIngredientUpdateMutation = (id: number) => useIngredientMutation((input: UpdateIngredientInput) => apiClient.patch<IngredientDetail>(`/api/ingredients/${id}`, input));
 export const useIngredientCopyMutation = () => useIngredientMutation((id: number) => apiClient.post<IngredientDetail>(`/api/ingredients/${id}/copy`, {}));
 
+/** Starts (or completes) our library as a copy of the reference tables. */
+export function useReferenceLibraryCopyMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => apiClient.post<{ copied: number }>('/api/ingredients/copy-reference', {}),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: ingredientKeys.all }),
+  });
+}
+
 /** Many prices at once, all on one date. */
 export function usePricesRecordMutation() {
   const queryClient = useQueryClient();

@@ -64,6 +64,19 @@ describe('library API', () => {
     });
   });
 
+  describe('POST /api/ingredients/copy-reference', () => {
+    test('a new organization starts its library as a copy of the reference tables, once', async () => {
+      const first = await outsider.call('POST', '/api/ingredients/copy-reference', {});
+      assert.equal(first.status, 201);
+      const reference = await outsider.call('GET', '/api/ingredients?library=reference&pageSize=1');
+      const own = await outsider.call('GET', '/api/ingredients?library=own&pageSize=1');
+      assert.ok(first.body.copied > 0);
+      assert.ok(own.body.total >= reference.body.total, 'every reference ingredient has a copy');
+      const again = await outsider.call('POST', '/api/ingredients/copy-reference', {});
+      assert.equal(again.body.copied, 0);
+    });
+  });
+
   describe('copying and editing', () => {
     test('a copy diverges from the reference: edited values form a new value set and the reference keeps its numbers', async () => {
       const copy = await nutritionist.call('POST', `/api/ingredients/${ref.maize}/copy`, {});

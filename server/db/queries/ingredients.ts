@@ -216,6 +216,22 @@ export async function copyIngredient(db: Db, organizationId: number, id: number,
   });
 }
 
+/**
+ * Copies every reference ingredient the organization has not copied yet into its own library (how a
+ * new organization starts). Returns how many were copied.
+ */
+export async function copyReferenceLibrary(db: Db, organizationId: number): Promise<number> {
+  return db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    const copied = await t.select({ from: ingredients.copiedFromId }).from(ingredients).where(eq(ingredients.organizationId, organizationId));
+    const have = new Set(copied.map((c) => c.from));
+    const reference = await t.select({ id: ingredients.id }).from(ingredients).where(isNull(ingredients.organizationId));
+    const missing = reference.map((r) => r.id).filter((id) => !have.has(id));
+    if (missing.length === 0) return 0;
+    return (await copyIngredientsToOrganization(t, organizationId, missing)).size;
+  });
+}
+
 /** Records a dated lab analysis: the values it measured replace the current ones, as fed. */
 export async function addLabAnalysis(db: Db, organizationId: number, id: number, input: LabInput): Promise<void> {
   await checkNutrientValues(db, input.values);

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Pressable, StyleSheet, useWindowDimensions, View } from 'react-native';
 import { Link, useRouter } from 'expo-router';
 
-import { useIngredientsQuery } from '@/api/ingredients';
+import { useIngredientsQuery, useReferenceLibraryCopyMutation } from '@/api/ingredients';
 import { useActiveMembership } from '@/api/session';
 import { CautionBanner } from '@/components/caution-banner';
 import { ErrorState } from '@/components/error-state';
@@ -80,7 +80,7 @@ export function LibraryScreen() {
           <AppText muted testID="ingredient-count">
             {list.data.total} {list.data.total === 1 ? 'ingredient' : 'ingredients'}{basis === 'dry_matter' ? ', values per kg of dry matter' : ', values per kg as fed'}
           </AppText>
-          {list.data.items.length === 0 ? <AppText>No ingredient matches. Clear the search or choose another category.</AppText> : null}
+          {list.data.items.length === 0 ? <EmptyLibrary own={library === 'own' && !search.trim() && category === 'all'} canWrite={can('library:write')} /> : null}
           {wide ? <IngredientTable items={list.data.items} basis={basis} /> : <IngredientCards items={list.data.items} basis={basis} />}
           {pages > 1 ? (
             <View style={styles.actions}>
@@ -93,6 +93,18 @@ export function LibraryScreen() {
       ) : list.isPending ? <AppText muted>Loading ingredients…</AppText> : null}
       <CautionBanner compact />
     </Screen>
+  );
+}
+
+function EmptyLibrary({ own, canWrite }: { own: boolean; canWrite: boolean }) {
+  const copy = useReferenceLibraryCopyMutation();
+  if (!own) return <AppText>No ingredient matches. Clear the search or choose another category.</AppText>;
+  return (
+    <View style={styles.filters} testID="library-empty">
+      <AppText>Our library is empty. Start from the reference tables and then adjust prices and values to your own supplies.</AppText>
+      {canWrite ? <Button label={copy.isPending ? 'Copying…' : 'Copy the reference tables'} disabled={copy.isPending} onPress={() => copy.mutate()} testID="library-copy-reference" /> : null}
+      {copy.isError ? <ErrorState error={copy.error} /> : null}
+    </View>
   );
 }
 

@@ -50,6 +50,7 @@ export const libraryRules: RuleSet = {
         prepare: async () => ({ url: `/api/ingredients/${await f.newIngredient()}` }),
         expect: allowOnly(WRITERS, 204, { outsider: 404 }),
       },
+      { method: 'POST', pattern: '/api/ingredients/copy-reference', url: '/api/ingredients/copy-reference', body: {}, expect: allowOnly(WRITERS, 201, { outsider: 201 }) },
       { method: 'POST', pattern: '/api/ingredients/:id/copy', url: `/api/ingredients/${f.reference.id}/copy`, body: {}, expect: allowOnly(WRITERS, 201, { outsider: 201 }) },
       {
         method: 'POST',

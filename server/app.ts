@@ -18,6 +18,7 @@ import { formulationRouter } from './routes/formulation';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
 import { membersRouter } from './routes/members';
+import { supplyPlansRouter } from './routes/supply-plans';
 
 export type AppOptions = {
   db: Db;
@@ -71,6 +72,7 @@ export function createApp({ db, mailer, devInbox, publicUrl, secureCookies = fal
   api.use('/dev/mail', devMailRouter({ inbox: devInbox }));
   api.use('/', formulationRouter());
   api.use('/formulas', formulasRouter({ db }));
+  api.use('/supply-plans', supplyPlansRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -4,6 +4,7 @@ import type { Db } from './client';
 import { seedDemoLibraries } from './reference-data/demo-library';
 import { seedReferenceLibrary } from './reference-data/seed-library';
 import { seedDemoAccounts } from './demo/accounts';
+import { seedDemoSupplyPlans } from './demo/supply';
 import { organizations, seedRuns, type NewOrganizationRow } from './schema';
 
 /**
@@ -26,6 +27,7 @@ export const DEMO_SEED_STEPS: SeedStep[] = [
   { name: 'demo-organizations-v1', apply: async (tx) => void (await tx.insert(organizations).values(DEMO_ORGANIZATIONS)) },
   { name: 'demo-accounts-v1', apply: seedDemoAccounts },
   { name: 'demo-libraries-v1', apply: seedDemoLibraries },
+  { name: 'demo-supply-plans-v1', apply: seedDemoSupplyPlans },
 ];
 
 /** Applies the seed steps that have not run yet; returns the names applied. */

@@ -2,3 +2,4 @@
 export { accountsRules } from './accounts.rules';
 export { formulationRules } from './formulation.rules';
 export { formulasRules } from './formulas.rules';
+export { supplyRules } from './supply.rules';

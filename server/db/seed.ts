@@ -5,6 +5,7 @@ import { seedDemoLibraries } from './reference-data/demo-library';
 import { seedReferenceLibrary } from './reference-data/seed-library';
 import { seedDemoAccounts } from './demo/accounts';
 import { seedDemoSupplyPlans } from './demo/supply';
+import { seedDemoFormulas } from './demo/formulas';
 import { organizations, seedRuns, type NewOrganizationRow } from './schema';
 
 /**
@@ -28,6 +29,7 @@ export const DEMO_SEED_STEPS: SeedStep[] = [
   { name: 'demo-accounts-v1', apply: seedDemoAccounts },
   { name: 'demo-libraries-v1', apply: seedDemoLibraries },
   { name: 'demo-supply-plans-v1', apply: seedDemoSupplyPlans },
+  { name: 'demo-formulas-v1', apply: seedDemoFormulas },
 ];
 
 /** Applies the seed steps that have not run yet; returns the names applied. */

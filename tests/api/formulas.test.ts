@@ -1,0 +1,251 @@
+import assert from 'node:assert/strict';
+import { after, before, describe, test } from 'node:test';
+import { and, count, eq, isNull } from 'drizzle-orm';
+
+import { DEMO_PASSWORD } from '../../server/db/demo/accounts';
+import { formulas, formulaVersions, ingredients, organizations, specifications } from '../../server/db/schema';
+import { seedDemoData } from '../../server/db/seed';
+import type { FormulaDetail, FormulaPriceSweep, FormulaSolve, VersionDetail } from '../../src/shared/schemas/formulas';
+import { signedInClient, type Client } from '../helpers/accounts';
+import { startTestApp, type TestApp } from '../helpers/app';
+
+const close = (actual: number, expected: number, tol: number, what: string) => assert.ok(Math.abs(actual - expected) <= tol, `${what}: ${actual} is not within ${tol} of ${expected}`);
+
+/**
+ * The formula workspace over HTTP against the demo scenario (Tamsby Cooperative Feed Mill's library,
+ * specifications and demo formulas). Bounds checked against NRC (1994) are the [V] rows of the broiler
+ * table (domain reference §1).
+ */
+describe('formulas API', () => {
+  let app: TestApp;
+  let nutritionist: Client;
+  let operator: Client;
+  let outsider: Client;
+  let millId: number;
+  let growerSpecId: number;
+  const own: Record<string, number> = {};
+
+  before(async () => {
+    app = await startTestApp('formulas_api');
+    const db = app.database.db;
+    await seedDemoData(db);
+    const base = app.server.baseUrl;
+    nutritionist = await signedInClient(base, 'nutritionist@tamsby.example', DEMO_PASSWORD);
+    operator = await signedInClient(base, 'operator@tamsby.example', DEMO_PASSWORD);
+    outsider = await signedInClient(base, 'farmer@orrinhollow.example', DEMO_PASSWORD);
+    await outsider.call('PUT', '/api/auth/active-organization', { organizationId: (await db.select().from(organizations).where(eq(organizations.name, 'Orrin Hollow Larvae Farm')))[0].id });
+    millId = (await db.select().from(organizations).where(eq(organizations.name, 'Tamsby Cooperative Feed Mill')))[0].id;
+    const [refGrower] = await db.select().from(specifications).where(and(isNull(specifications.organizationId), eq(specifications.code, 'nrc1994-broiler-grower')));
+    growerSpecId = (await db.select().from(specifications).where(and(eq(specifications.organizationId, millId), eq(specifications.copiedFromId, refGrower.id))))[0].id;
+    for (const code of ['maize', 'soybean-meal-48', 'soybean-oil', 'limestone', 'dicalcium-phosphate', 'salt', 'l-lysine-hcl', 'dl-methionine', 'l-threonine', 'bsf-full-fat-brewery', 'bsf-defatted', 'wheat']) {
+      const [ref] = await db.select().from(ingredients).where(and(isNull(ingredients.organizationId), eq(ingredients.code, code)));
+      own[code] = (await db.select().from(ingredients).where(and(eq(ingredients.organizationId, millId), eq(ingredients.copiedFromId, ref.id))))[0].id;
+    }
+    const [offal] = await db.select().from(ingredients).where(and(eq(ingredients.organizationId, millId), eq(ingredients.name, 'Larvae meal, defatted (poultry processing offal)')));
+    own.offal = offal.id;
+    own.contractMeal = (await db.select().from(ingredients).where(and(eq(ingredients.organizationId, millId), eq(ingredients.name, 'Larvae meal, partially defatted (Orrin Hollow contract)'))))[0].id;
+  });
+  after(async () => app?.close());
+
+  const growerBody = (over: Record<string, unknown> = {}) => ({
+    name: 'Test broiler grower',
+    specificationId: growerSpecId,
+    batchKg: 1000,
+    ingredients: ['maize', 'wheat', 'soybean-meal-48', 'soybean-oil', 'limestone', 'dicalcium-phosphate', 'salt', 'l-lysine-hcl', 'dl-methionine', 'l-threonine', 'contractMeal'].map((code) => ({ ingredientId: own[code] })),
+    ...over,
+  });
+  const versionCount = async (formulaId: number) => (await app.database.db.select({ n: count() }).from(formulaVersions).where(eq(formulaVersions.formulaId, formulaId)))[0].n;
+
+  describe('the demo scenario', () => {
+    test('has formulas across species, one with black soldier fly meal in the mix, one infeasible, one approved', async () => {
+      const { status, body } = await nutritionist.call('GET', '/api/formulas');
+      assert.equal(status, 200);
+      const list = body as FormulaDetail[];
+      assert.ok(list.length >= 4);
+      assert.ok(new Set(list.map((f) => f.species?.family)).size >= 2, 'poultry and pig formulas');
+      assert.ok(list.some((f) => f.latestVersion?.status === 'infeasible'), 'an infeasible formula');
+      assert.ok(list.some((f) => f.approvedVersion), 'an approved version');
+      let bsfInMix = false;
+      for (const f of list) {
+        if (!f.latestVersion) continue;
+        const v = (await nutritionist.call('GET', `/api/formulas/${f.id}/versions/${f.latestVersion.id}`)).body as VersionDetail;
+        const result = v.snapshot.result;
+        if (result.status === 'optimal' && result.mix.some((m) => v.snapshot.ingredients.find((u) => String(u.ingredientId) === m.id)?.insectSpecies === 'hermetia_illucens' && m.percent > 0.5)) bsfInMix = true;
+        if (result.status === 'infeasible') assert.ok(result.relaxations.length > 0 && result.relaxations.every((r) => r.message.length > 10), 'infeasible advice in words');
+      }
+      assert.ok(bsfInMix, 'black soldier fly larvae meal in some mix');
+    });
+  });
+
+  describe('POST /api/formulas', () => {
+    test('fills the bounds from the broiler grower specification (NRC 1994, grower column)', async () => {
+      const { status, body } = await nutritionist.call('POST', '/api/formulas', growerBody());
+      assert.equal(status, 201, JSON.stringify(body));
+      const f = body as FormulaDetail;
+      const min = (id: string) => f.inputs.nutrients.find((b) => b.nutrientId === id)?.min;
+      // NRC (1994) broiler requirements, 3–6 weeks, [V] in the domain reference §1.
+      assert.equal(min('cp'), 20);
+      assert.equal(min('lys'), 1.0);
+      assert.equal(min('met'), 0.38);
+      assert.equal(min('amen_poultry'), 3200);
+      assert.equal(f.species?.name, 'Broiler chicken');
+      assert.ok(f.inputs.groups.some((g) => g.insectSpecies === 'hermetia_illucens' && g.maxPct === 10), 'the 10 % black soldier fly cap');
+      assert.equal(await versionCount(f.id), 0);
+    });
+
+    test('refuses a larvae meal reared on poultry offal for broilers, naming the rule, and saves nothing', async () => {
+      const before = (await app.database.db.select({ n: count() }).from(formulas))[0].n;
+      const { status, body } = await nutritionist.call('POST', '/api/formulas', growerBody({ ingredients: [{ ingredientId: own.maize }, { ingredientId: own.offal }] }));
+      assert.equal(status, 400);
+      assert.match(body.error.fieldErrors['ingredients[1].ingredientId'][0], /cannot go into diets for Broiler chicken/);
+      assert.equal((await app.database.db.select({ n: count() }).from(formulas))[0].n, before);
+    });
+
+    test('answers 400 with field errors for a bad batch and a missing specification', async () => {
+      const { status, body } = await nutritionist.call('POST', '/api/formulas', { ...growerBody(), batchKg: -5, specificationId: undefined });
+      assert.equal(status, 400);
+      assert.ok(body.error.fieldErrors.batchKg);
+      assert.ok(body.error.fieldErrors.specificationId);
+    });
+  });
+
+  describe('POST /api/formulas/:id/solve', () => {
+    test('solves with today’s library prices, states the basis, and keeps nothing', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const { status, body } = await nutritionist.call('POST', `/api/formulas/${f.id}/solve`, {});
+      assert.equal(status, 200);
+      const s = body as FormulaSolve;
+      assert.equal(s.basis, 'as fed');
+      assert.equal(s.result.status, 'optimal', JSON.stringify(s.result).slice(0, 400));
+      if (s.result.status !== 'optimal') return;
+      close(s.result.mix.reduce((sum, m) => sum + m.kg, 0), 1000, 1e-6, 'batch kg');
+      for (const b of [['cp', 20], ['lys', 1.0], ['met', 0.38], ['amen_poultry', 3200]] as const) {
+        const level = s.result.nutrients.find((n) => n.id === b[0])!.value;
+        assert.ok(level >= b[1] - 1e-6, `${b[0]} ${level} meets its minimum ${b[1]}`);
+      }
+      const maize = s.ingredients.find((u) => u.ingredientId === own.maize)!;
+      assert.equal(maize.priceSource, 'library');
+      assert.equal(maize.pricePerKg, 0.229, 'the demo library price of 16 March');
+      assert.ok(s.result.nutrients.some((n) => n.binding && n.readable?.text), 'binding bounds carry readable shadow prices');
+      assert.ok(s.result.ranging.length > 0);
+      assert.equal(await versionCount(f.id), 0);
+    });
+
+    test('an impossible bound in unsaved inputs answers 200 infeasible with advice, and the saved inputs stay', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const inputs = { ...f.inputs, nutrients: f.inputs.nutrients.map((b) => (b.nutrientId === 'amen_poultry' ? { ...b, min: 9000 } : b)) };
+      const { status, body } = await nutritionist.call('POST', `/api/formulas/${f.id}/solve`, { inputs });
+      assert.equal(status, 200);
+      assert.equal(body.result.status, 'infeasible');
+      assert.ok(body.result.relaxations.some((r: { message: string }) => /AMEn/.test(r.message)), JSON.stringify(body.result.relaxations));
+      const again = (await nutritionist.call('GET', `/api/formulas/${f.id}`)).body as FormulaDetail;
+      assert.equal(again.inputs.nutrients.find((b) => b.nutrientId === 'cp')?.min, 20);
+    });
+  });
+
+  describe('versions', () => {
+    test('a kept version is a snapshot: a later library price change does not touch it', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const kept = await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, { note: 'First try' });
+      assert.equal(kept.status, 201);
+      const v = kept.body as VersionDetail;
+      assert.equal(v.number, 1);
+      assert.equal(v.createdBy, 'Idris Okonjo');
+      assert.equal(v.approval, 'not_approved');
+      const soyBefore = v.snapshot.ingredients.find((u) => u.ingredientId === own['soybean-meal-48'])!;
+      await app.database.db.update(ingredients).set({ pricePerKg: '0.9000', version: 99 }).where(eq(ingredients.id, own['soybean-meal-48']));
+      const later = (await nutritionist.call('GET', `/api/formulas/${f.id}/versions/${v.id}`)).body as VersionDetail;
+      assert.deepEqual(later.snapshot, v.snapshot);
+      assert.equal(later.snapshot.ingredients.find((u) => u.ingredientId === own['soybean-meal-48'])!.pricePerKg, soyBefore.pricePerKg);
+      const fresh = (await nutritionist.call('POST', `/api/formulas/${f.id}/solve`, {})).body as FormulaSolve;
+      assert.equal(fresh.ingredients.find((u) => u.ingredientId === own['soybean-meal-48'])!.pricePerKg, 0.9);
+      await app.database.db.update(ingredients).set({ pricePerKg: soyBefore.libraryPricePerKg!.toFixed(4) }).where(eq(ingredients.id, own['soybean-meal-48']));
+    });
+
+    test('an infeasible version cannot be approved; a newer approval supersedes the older', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const bad = { ...f.inputs, nutrients: f.inputs.nutrients.map((b) => (b.nutrientId === 'amen_poultry' ? { ...b, min: 9000 } : b)) };
+      const v1 = (await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, { inputs: bad })).body as VersionDetail;
+      assert.equal(v1.status, 'infeasible');
+      const refused = await nutritionist.call('POST', `/api/formulas/${f.id}/versions/${v1.id}/approve`);
+      assert.equal(refused.status, 409);
+      assert.match(refused.body.error.message, /cannot be approved/);
+      const v2 = (await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, { inputs: f.inputs })).body as VersionDetail;
+      const v3 = (await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, { inputs: f.inputs, note: 'same again' })).body as VersionDetail;
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/versions/${v2.id}/approve`)).body.approval, 'current');
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/versions/${v2.id}/approve`)).status, 409, 'approving twice is refused');
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/versions/${v3.id}/approve`)).body.approval, 'current');
+      const versions = (await nutritionist.call('GET', `/api/formulas/${f.id}/versions`)).body as VersionDetail[];
+      assert.deepEqual(versions.map((v) => [v.number, v.approval]), [[3, 'current'], [2, 'superseded'], [1, 'not_approved']]);
+      // Immutable: the approval columns are the only ones written after the insert.
+      const rows = await app.database.db.select().from(formulaVersions).where(eq(formulaVersions.id, v2.id));
+      assert.deepEqual(rows[0].snapshot, v2.snapshot);
+
+      // The mill operator sees the current approved version only, and nothing else of formulas.
+      const approved = (await operator.call('GET', '/api/formulas/approved')).body as { formulaId: number; version: { id: number } }[];
+      assert.equal(approved.find((a) => a.formulaId === f.id)?.version.id, v3.id);
+      assert.equal((await operator.call('GET', `/api/formulas/approved/${v3.id}`)).status, 200);
+      assert.equal((await operator.call('GET', `/api/formulas/approved/${v2.id}`)).status, 404, 'a superseded version does not reach the mill');
+      assert.equal((await operator.call('GET', `/api/formulas/approved/${v1.id}`)).status, 404);
+      assert.equal((await operator.call('GET', `/api/formulas/${f.id}`)).status, 403);
+      assert.equal((await operator.call('GET', `/api/formulas/${f.id}/versions/${v3.id}`)).status, 403);
+      assert.equal((await outsider.call('GET', `/api/formulas/approved/${v3.id}`)).status, 404);
+    });
+
+    test('compare gives b minus a for cost per tonne, mix and nutrient levels', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const a = (await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, {})).body as VersionDetail;
+      const dearSoy = { ...f.inputs, ingredients: f.inputs.ingredients.map((i) => (i.ingredientId === own['soybean-meal-48'] ? { ...i, pricePerKg: 0.75 } : i)) };
+      const b = (await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, { inputs: dearSoy })).body as VersionDetail;
+      const { status, body } = await nutritionist.call('GET', `/api/formulas/${f.id}/compare?a=${a.id}&b=${b.id}`);
+      assert.equal(status, 200);
+      assert.ok(a.costPerTonne !== null && b.costPerTonne !== null);
+      close(body.cost.diffPerTonne, b.costPerTonne! - a.costPerTonne!, 1e-9, 'cost difference');
+      assert.ok(body.cost.diffPerTonne > 0, 'dearer soybean meal raises the cost');
+      for (const line of body.mix) close(line.diffPercent, line.bPercent - line.aPercent, 1e-9, line.name);
+    });
+  });
+
+  describe('PUT /api/formulas/:id', () => {
+    test('a stale revision answers 409 and nothing is overwritten', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const first = await nutritionist.call('PUT', `/api/formulas/${f.id}`, { inputs: { ...f.inputs, batchKg: 3000 }, expectedRevision: f.revision });
+      assert.equal(first.status, 200);
+      const stale = await nutritionist.call('PUT', `/api/formulas/${f.id}`, { inputs: { ...f.inputs, batchKg: 500 }, expectedRevision: f.revision });
+      assert.equal(stale.status, 409);
+      assert.equal(((await nutritionist.call('GET', `/api/formulas/${f.id}`)).body as FormulaDetail).inputs.batchKg, 3000);
+    });
+  });
+
+  describe('POST /api/formulas/:id/price-sweep', () => {
+    test('finds the price at which the larvae meal enters, and cost never falls as its price rises', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const { status, body } = await nutritionist.call('POST', `/api/formulas/${f.id}/price-sweep`, { ingredientId: own.contractMeal, fromPrice: 0, toPrice: 1.5, steps: 31 });
+      assert.equal(status, 200, JSON.stringify(body));
+      const sweep = (body as FormulaPriceSweep).sweep;
+      assert.equal(sweep.points.length, 31);
+      assert.ok(sweep.entersAtPrice !== null && sweep.entersAtPrice > 0, `enters at ${sweep.entersAtPrice}`);
+      for (let i = 1; i < sweep.points.length; i++) {
+        const [p, q] = [sweep.points[i - 1], sweep.points[i]];
+        assert.ok(q.costPerBatch! >= p.costPerBatch! - 1e-6, `cost at ${q.pricePerKg} below cost at ${p.pricePerKg}`);
+        assert.ok(q.kg! <= p.kg! + 1e-6, 'inclusion never grows as the price rises');
+      }
+      const above = sweep.points.find((p) => p.pricePerKg > sweep.entersAtPrice! + 1e-6);
+      if (above) assert.ok(above.kg! < 1e-6, 'left out above its entering price');
+      // Cap from Dabbou et al. 2018: at most 10 % of the feed, 100 kg in a 1,000 kg batch.
+      assert.ok(sweep.points.every((p) => p.kg! <= 100 + 1e-6));
+    });
+
+    test('an ingredient that is not in the formula is refused with what to do', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody({ ingredients: [{ ingredientId: own.maize }, { ingredientId: own['soybean-meal-48'] }] }))).body as FormulaDetail;
+      const { status, body } = await nutritionist.call('POST', `/api/formulas/${f.id}/price-sweep`, { ingredientId: own['bsf-full-fat-brewery'] });
+      assert.equal(status, 400);
+      assert.match(body.error.fieldErrors.ingredientId[0], /add this ingredient/);
+    });
+  });
+
+  test('another organization’s formula answers 404', async () => {
+    const [f] = await app.database.db.select().from(formulas).where(eq(formulas.organizationId, millId));
+    assert.equal((await outsider.call('GET', `/api/formulas/${f.id}`)).status, 404);
+  });
+});

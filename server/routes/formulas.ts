@@ -1,12 +1,13 @@
 import { Router } from 'express';
 
 import { idParams } from '../../src/shared/schemas/library-common';
-import { compareQuery, createFormulaInput, formulaPriceSweepInput, keepVersionInput, solveFormulaInput, updateFormulaInput, versionParams } from '../../src/shared/schemas/formulas';
+import { choicesQuery, compareQuery, createFormulaInput, formulaPriceSweepInput, keepVersionInput, solveFormulaInput, updateFormulaInput, versionParams } from '../../src/shared/schemas/formulas';
 import type { Db } from '../db/client';
 import {
   approveVersion,
   compareVersions,
   createFormula,
+  formulaChoices,
   getApprovedVersion,
   getFormula,
   getVersion,
@@ -38,6 +39,11 @@ export function formulasRouter({ db }: { db: Db }): Router {
   router.get('/approved/:id', access.member('formulas:read-approved'), async (req, res) => {
     const { organizationId } = requireMembership(req);
     res.json(await getApprovedVersion(db, organizationId, approvedParams.parse(req.params).id));
+  });
+
+  router.get('/choices', access.member('formulas:solve'), async (req, res) => {
+    const { organizationId } = requireMembership(req);
+    res.json(await formulaChoices(db, organizationId, choicesQuery.parse(req.query).specificationId));
   });
 
   router.get('/', access.member('formulas:read'), async (req, res) => {

@@ -77,6 +77,19 @@ describe('formulas API', () => {
     });
   });
 
+  describe('GET /api/formulas/choices', () => {
+    test('offers the mill’s specifications and ingredients, marking the ones the insect rule keeps out', async () => {
+      const { status, body } = await nutritionist.call('GET', `/api/formulas/choices?specificationId=${growerSpecId}`);
+      assert.equal(status, 200);
+      assert.ok(body.specifications.some((s: { id: number }) => s.id === growerSpecId));
+      const offal = body.ingredients.find((i: { id: number }) => i.id === own.offal);
+      assert.equal(offal.offered.allowed, false);
+      assert.match(offal.offered.message, /cannot go into diets for Broiler chicken/);
+      assert.equal(body.ingredients.find((i: { id: number }) => i.id === own.contractMeal).offered.allowed, true);
+      assert.equal((await nutritionist.call('GET', '/api/formulas/choices?specificationId=999999')).status, 404);
+    });
+  });
+
   describe('POST /api/formulas', () => {
     test('fills the bounds from the broiler grower specification (NRC 1994, grower column)', async () => {
       const { status, body } = await nutritionist.call('POST', '/api/formulas', growerBody());

@@ -8,8 +8,10 @@ import type {
   ApprovalState,
   ApprovedFormula,
   createFormulaInput,
+  FormulaChoices,
   FormulaDetail,
   FormulaInputs,
+  IngredientChoice,
   FormulaPriceSweep,
   formulaPriceSweepInput,
   FormulaSolve,
@@ -34,7 +36,8 @@ import {
   type FormulaRow,
   type FormulaVersionRow,
 } from '../schema';
-import { getSpecification } from './specifications';
+import { listIngredients } from './ingredients';
+import { getSpecification, listSpecifications } from './specifications';
 
 type CreateInput = z.output<typeof createFormulaInput>;
 type UpdateInput = z.output<typeof updateFormulaInput>;
@@ -80,6 +83,33 @@ async function loadNutrientInfo(db: Db): Promise<Map<string, NutrientInfo>> {
 async function userName(db: Db, userId: string): Promise<string> {
   const [u] = await db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, userId));
   return u?.name || u?.email || 'unknown';
+}
+
+/**
+ * What a new formula is built from: the organization's own specifications and ingredients (the
+ * reference library is copied into an organization's own first). With a specification, each ingredient
+ * says whether the insect-protein rule lets it into that species' diets.
+ */
+export async function formulaChoices(db: Db, organizationId: number, specificationId?: number): Promise<FormulaChoices> {
+  const specs = await listSpecifications(db, organizationId, { library: 'own', page: 1, pageSize: 200 });
+  let speciesId: number | undefined;
+  if (specificationId) {
+    const spec = specs.items.find((s) => s.id === specificationId);
+    if (!spec) throw notFound('specification', specificationId);
+    speciesId = spec.species.id;
+  }
+  const items: IngredientChoice[] = [];
+  for (let page = 1; ; page++) {
+    const batch = await listIngredients(db, organizationId, { library: 'own', page, pageSize: 200, speciesId });
+    for (const i of batch.items) {
+      items.push({ id: i.id, name: i.name, category: i.category, insectSpecies: i.insect?.species ?? null, pricePerKg: i.pricePerKg, priceDate: i.priceDate, offered: i.offered ?? { allowed: true, message: null } });
+    }
+    if (page * 200 >= batch.total) break;
+  }
+  return {
+    specifications: specs.items.map((s) => ({ id: s.id, name: s.name, species: s.species, phase: s.phase ? { name: s.phase.name, span: s.phase.span } : null })),
+    ingredients: items,
+  };
 }
 
 // ---------------------------------------------------------------------------

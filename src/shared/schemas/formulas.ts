@@ -152,6 +152,9 @@ export const versionParams = z.object({
   versionId: z.coerce.number({ message: 'must be a number' }).int().positive(),
 });
 
+/** GET /api/formulas/choices: what a new formula can be built from; with a specification, ingredients are judged for its species. */
+export const choicesQuery = z.object({ specificationId: z.coerce.number().int().positive().optional() });
+
 export const compareQuery = z.object({
   a: z.coerce.number({ message: 'choose the first version' }).int().positive(),
   b: z.coerce.number({ message: 'choose the second version' }).int().positive(),
@@ -253,6 +256,22 @@ export type FormulaPriceSweep = {
   batchKg: number;
   sweep: PriceSweepResult;
 };
+
+/** An ingredient the picker offers: price as fed, and whether the insect-protein rule allows it for the chosen species. */
+export type IngredientChoice = {
+  id: number;
+  name: string;
+  category: IngredientCategory;
+  insectSpecies: InsectSpecies | null;
+  pricePerKg: number | null;
+  priceDate: string | null;
+  offered: { allowed: boolean; message: string | null };
+};
+
+export type SpecificationChoice = { id: number; name: string; species: { id: number; name: string; family: SpeciesFamily }; phase: { name: string; span: string | null } | null };
+
+/** The response of GET /api/formulas/choices: the organization's own specifications and ingredients. */
+export type FormulaChoices = { specifications: SpecificationChoice[]; ingredients: IngredientChoice[] };
 
 /** Differences between two versions, b minus a. */
 export type VersionComparison = {

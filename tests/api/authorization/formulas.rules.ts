@@ -46,6 +46,7 @@ export const formulasRules: RuleSet = {
     return [
       { method: 'GET', pattern: '/api/formulas', url: '/api/formulas', expect: allowOnly(READERS, 200, { outsider: 200 }) },
       { method: 'POST', pattern: '/api/formulas', url: '/api/formulas', body: f.body, expect: allowOnly(SOLVERS, 201, { outsider: 201 }) },
+      { method: 'GET', pattern: '/api/formulas/choices', url: '/api/formulas/choices', expect: allowOnly(SOLVERS, 200, { outsider: 200 }) },
       { method: 'GET', pattern: '/api/formulas/approved', url: '/api/formulas/approved', expect: allowOnly(APPROVED_READERS, 200, { outsider: 200 }) },
       { method: 'GET', pattern: '/api/formulas/approved/:id', url: `/api/formulas/approved/${f.approvedId}`, expect: allowOnly(APPROVED_READERS, 200, { outsider: 404 }) },
       { method: 'GET', pattern: '/api/formulas/:id', url: base, expect: allowOnly(READERS, 200, { outsider: 404 }) },

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { IngredientCategory, LibraryName } from '@/shared/library-terms';
-import type { CreateIngredientInput, IngredientDetail, IngredientSummary, UpdateIngredientInput } from '@/shared/schemas/ingredients';
+import type { CreateIngredientInput, IngredientDetail, IngredientSummary, LabAnalysisInput, UpdateIngredientInput } from '@/shared/schemas/ingredients';
 import type { Page } from '@/shared/schemas/library-common';
 import type { RecordPricesInput, RecordPricesResult } from '@/shared/schemas/prices';
 
@@ -49,6 +49,8 @@ function useIngredientMutation<TInput>(fn: (input: TInput) => Promise<Ingredient
 
 export const useIngredientCreateMutation = () => useIngredientMutation((input: CreateIngredientInput) => apiClient.post<IngredientDetail>('/api/ingredients', input));
 export const useIngredientUpdateMutation = (id: number) => useIngredientMutation((input: UpdateIngredientInput) => apiClient.patch<IngredientDetail>(`/api/ingredients/${id}`, input));
+export const useLabAnalysisMutation = (id: number) =>
+  useIngredientMutation((input: LabAnalysisInput) => apiClient.post<IngredientDetail>(`/api/ingredients/${id}/lab-analyses`, input));
 export const useIngredientCopyMutation = () => useIngredientMutation((id: number) => apiClient.post<IngredientDetail>(`/api/ingredients/${id}/copy`, {}));
 
 /** Starts (or completes) our library as a copy of the reference tables. */

@@ -111,7 +111,16 @@ describe('library and requirements in the browser', () => {
     await visible(page, 'ingredient-save').click();
     await visible(page, 'screen-ingredient').waitFor();
     assert.match(await visible(page, 'value-cp-figure').innerText(), /^10\.60\s/);
-    await page.screenshot({ path: join(TEST_OUTPUT, 'library-new-ingredient-wide.png') });
+    // A lab report on a dry-matter basis is stored as fed: 12 % CP in DM at 88 % DM = 10.56 % as fed.
+    await visible(page, 'lab-name').fill('County feed lab, report 31');
+    await visible(page, 'lab-dm').fill('88');
+    await visible(page, 'lab-basis-dry_matter').click();
+    await visible(page, 'lab-value-cp').fill('12');
+    await visible(page, 'lab-save').click();
+    await visible(page, 'lab-message').waitFor();
+    assert.match(await visible(page, 'value-cp-figure').innerText(), /^10\.56\s/);
+    assert.match(await visible(page, 'value-sources').innerText(), /County feed lab, report 31/);
+    await page.screenshot({ path: join(TEST_OUTPUT, 'library-new-ingredient-wide.png'), fullPage: true });
     await page.close();
   });
 });

@@ -131,7 +131,7 @@ function IngredientTable({ items, basis }: { items: IngredientSummary[]; basis: 
       </View>
       {items.map((item) => (
         <Link key={item.id} href={`/library/${item.id}`} asChild>
-          <Pressable style={({ pressed }) => [styles.row, pressed && styles.pressed]} role="row" testID={`ingredient-row-${item.id}`}>
+          <Pressable style={styles.row} role="row" testID={`ingredient-row-${item.id}`}>
             <View style={styles.nameCell}>
               <AppText>{item.name}</AppText>
               <AppText variant="caption" muted>{INGREDIENT_CATEGORY_LABELS[item.category]}</AppText>
@@ -153,7 +153,7 @@ function IngredientCards({ items, basis }: { items: IngredientSummary[]; basis: 
     <View style={styles.cards} testID="ingredient-cards">
       {items.map((item) => (
         <Link key={item.id} href={`/library/${item.id}`} asChild>
-          <Pressable style={({ pressed }) => [styles.card, pressed && styles.pressed]} testID={`ingredient-card-${item.id}`}>
+          <Pressable style={styles.card} testID={`ingredient-card-${item.id}`}>
             <AppText variant="label">{item.name}</AppText>
             <AppText variant="caption" muted>{INGREDIENT_CATEGORY_LABELS[item.category]}</AppText>
             <Badges item={item} />
@@ -187,7 +187,6 @@ const styles = StyleSheet.create({
   nameCell: { flex: 3, gap: 2 },
   numCell: { flex: 1, textAlign: 'right' },
   figure: { fontVariant: ['tabular-nums'] },
-  pressed: { opacity: 0.8 },
   badges: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xs },
   badge: { paddingHorizontal: space.sm, borderRadius: radius.sm, overflow: 'hidden' },
   insectBadge: { backgroundColor: colors.accentSoft, color: colors.ink },

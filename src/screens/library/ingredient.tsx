@@ -28,6 +28,7 @@ import { colors, radius, space, TOUCH_MIN } from '@/theme';
 
 import { BasisToggle } from './basis-toggle';
 import { formatValue } from './format';
+import { LabAnalysisCard } from './lab-analysis-card';
 
 /** One ingredient: its nutrient profile by kind with the source of each value, insect details and prices. */
 export function IngredientScreen({ id }: { id: number }) {
@@ -76,6 +77,7 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
       <BasisToggle value={basis} onChange={setBasis} />
       <Profile item={item} basis={basis} setNumber={setNumber} />
       <Sources sets={item.valueSets} setNumber={setNumber} />
+      {item.library === 'own' && can('lab:import') ? <LabAnalysisCard ingredientId={item.id} /> : null}
       <Card title="Price" testID="price-history">
         {item.prices.length === 0 ? <AppText muted>No price recorded.</AppText> : null}
         {item.prices.map((p) => (

@@ -51,7 +51,7 @@ function SpecTable({ items }: { items: SpecificationSummary[] }) {
       </View>
       {items.map((s) => (
         <Link key={s.id} href={`/requirements/${s.id}`} asChild>
-          <Pressable style={({ pressed }) => [styles.row, pressed && styles.pressed]} role="row" testID={`spec-row-${s.id}`}>
+          <Pressable style={styles.row} role="row" testID={`spec-row-${s.id}`}>
             <AppText style={styles.wide}>{s.name}</AppText>
             <AppText style={styles.mid}>{s.species.name}{s.phase ? ` · ${s.phase.span ?? s.phase.name}` : ''}</AppText>
             <AppText variant="small" muted style={styles.wide}>{s.source}</AppText>
@@ -68,7 +68,7 @@ function SpecCards({ items }: { items: SpecificationSummary[] }) {
     <View style={styles.cards} testID="spec-cards">
       {items.map((s) => (
         <Link key={s.id} href={`/requirements/${s.id}`} asChild>
-          <Pressable style={({ pressed }) => [styles.card, pressed && styles.pressed]} testID={`spec-card-${s.id}`}>
+          <Pressable style={styles.card} testID={`spec-card-${s.id}`}>
             <AppText variant="label">{s.name}</AppText>
             <AppText variant="small">{s.species.name}{s.phase ? ` · ${s.phase.span ?? s.phase.name}` : ''}</AppText>
             <AppText variant="caption" muted>{s.source}</AppText>
@@ -86,7 +86,6 @@ const styles = StyleSheet.create({
   wide: { flex: 3 },
   mid: { flex: 2 },
   narrow: { flex: 1, textAlign: 'right' },
-  pressed: { opacity: 0.8 },
   cards: { gap: space.md },
   card: { gap: space.xs, padding: space.lg, minHeight: TOUCH_MIN, borderRadius: radius.lg, backgroundColor: colors.paperRaised, borderWidth: 1, borderColor: colors.rule },
 });

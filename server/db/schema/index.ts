@@ -5,3 +5,4 @@ export * from './library';
 export * from './requirements';
 export * from './formulas';
 export * from './supply';
+export * from './lab-imports';

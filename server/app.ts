@@ -17,6 +17,7 @@ import { formulasRouter } from './routes/formulas';
 import { formulationRouter } from './routes/formulation';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
+import { labImportsRouter } from './routes/lab-imports';
 import { membersRouter } from './routes/members';
 import { supplyPlansRouter } from './routes/supply-plans';
 
@@ -73,6 +74,7 @@ export function createApp({ db, mailer, devInbox, publicUrl, secureCookies = fal
   api.use('/', formulationRouter());
   api.use('/formulas', formulasRouter({ db }));
   api.use('/supply-plans', supplyPlansRouter({ db }));
+  api.use('/', labImportsRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
 

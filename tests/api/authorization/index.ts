@@ -3,3 +3,4 @@ export { accountsRules } from './accounts.rules';
 export { formulationRules } from './formulation.rules';
 export { formulasRules } from './formulas.rules';
 export { supplyRules } from './supply.rules';
+export { labImportsRules } from './lab-imports.rules';

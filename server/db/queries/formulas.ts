@@ -210,7 +210,9 @@ export async function listFormulas(db: Db, organizationId: number): Promise<Form
 export async function getFormula(db: Db, organizationId: number, id: number): Promise<FormulaDetail> {
   const row = await findFormula(db, organizationId, id);
   const [summary] = await summaries(db, organizationId, [row]);
-  return { ...summary, inputs: row.inputs };
+  const library = await loadLibrary(db, organizationId, row.inputs.ingredients.map((i) => i.ingredientId));
+  const ingredientLabels = [...library.values()].map(({ id, name, category, insectSpecies, pricePerKg, priceDate }) => ({ id, name, category, insectSpecies, pricePerKg, priceDate }));
+  return { ...summary, inputs: row.inputs, labels: { ingredients: ingredientLabels, nutrients: [...(await loadNutrientInfo(db)).values()] } };
 }
 
 /** Checks what a formula's inputs name against the library: the same refusals a solve would give. */

@@ -1,17 +1,19 @@
-import { Screen } from '@/components/screen';
-import { SectionPlan } from '@/components/section-plan';
+import { useLocalSearchParams } from 'expo-router';
 
+import { useActiveMembership } from '@/api/session';
+
+import { ApprovedFormulas } from './approved';
+import { FormulaList } from './list';
+import { FormulaWorkspace } from './workspace';
+
+/**
+ * The Formulas section. Planners see their formulas and open one in the workspace (?formula=id);
+ * mill operators see only approved versions (?sheet=versionId opens one as a batch sheet).
+ */
 export function FormulasScreen() {
-  return (
-    <Screen title="Formulas" lead="The cheapest mix that meets a specification at today’s prices." testID="screen-formulas">
-      <SectionPlan
-        items={[
-          'pick a species and phase, then the ingredients you have and their prices',
-          'solve the least-cost mix and see which requirements drive its cost',
-          'see what insect meal is worth in each diet',
-          'keep versions, approve one and hand a batch sheet to the mixer',
-        ]}
-      />
-    </Screen>
-  );
+  const { formula, sheet } = useLocalSearchParams<{ formula?: string; sheet?: string }>();
+  const { can } = useActiveMembership();
+  if (!can('formulas:read')) return <ApprovedFormulas sheetId={sheet ? Number(sheet) : null} />;
+  if (formula) return <FormulaWorkspace id={Number(formula)} />;
+  return <FormulaList />;
 }

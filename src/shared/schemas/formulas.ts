@@ -243,7 +243,15 @@ export type FormulaSummary = {
   approvedVersion: VersionSummary | null;
 };
 
-export type FormulaDetail = FormulaSummary & { inputs: FormulaInputs; versions: VersionSummary[] };
+/** A chosen ingredient as the library has it today (for labels; a solve reads the library again). */
+export type IngredientLabel = { id: number; name: string; category: IngredientCategory; insectSpecies: InsectSpecies | null; pricePerKg: number | null; priceDate: string | null };
+
+export type FormulaDetail = FormulaSummary & {
+  inputs: FormulaInputs;
+  versions: VersionSummary[];
+  /** Names for the screen: the chosen ingredients and the whole nutrient catalogue. */
+  labels: { ingredients: IngredientLabel[]; nutrients: NutrientInfo[] };
+};
 
 /** An approved version as a mill operator sees it (GET /api/formulas/approved). */
 export type ApprovedFormula = { formulaId: number; formulaName: string; version: VersionSummary; species: { name: string } | null; batchKg: number };

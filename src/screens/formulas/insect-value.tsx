@@ -1,0 +1,62 @@
+import { useState } from 'react';
+import { ActivityIndicator, StyleSheet, View } from 'react-native';
+
+import { useFormulaPriceSweepMutation } from '@/api/formulas';
+import { PriceSweepChart } from '@/components/charts/price-sweep-chart';
+import { describeError } from '@/components/error-state';
+import { FormMessage } from '@/components/form-message';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { ChoiceChips } from '@/components/ui/choice-chips';
+import { AppText } from '@/components/ui/text';
+import type { FormulaInputsInput } from '@/shared/schemas/formulas';
+import { colors, space } from '@/theme';
+
+import { pct } from './format';
+
+/**
+ * What an insect meal is worth in this diet: the formula re-solved on the server over a range of the
+ * meal's price, with the price at which it enters the mix and how its inclusion grows as it gets cheaper.
+ */
+export function InsectValue({ formulaId, meals, currentInputs }: { formulaId: number; meals: { id: number; name: string }[]; currentInputs: () => FormulaInputsInput | null }) {
+  const [chosen, setChosen] = useState(meals[0] ? String(meals[0].id) : '');
+  const sweep = useFormulaPriceSweepMutation(formulaId);
+  if (meals.length === 0) {
+    return (
+      <Card title="Insect meal value">
+        <AppText muted>Add an insect meal to the ingredients to see what it is worth in this diet.</AppText>
+      </Card>
+    );
+  }
+  const run = () => {
+    const inputs = currentInputs();
+    if (inputs) sweep.mutate({ ingredientId: Number(chosen), inputs });
+  };
+  const data = sweep.data;
+  const steps = data?.sweep.points ?? [];
+  return (
+    <Card title="Insect meal value" testID="insect-value">
+      <ChoiceChips label="Insect meal" value={chosen} onChange={(v) => { setChosen(v); sweep.reset(); }} options={meals.map((m) => ({ value: String(m.id), label: m.name }))} testID="insect-choice" />
+      <Button label={sweep.isPending ? 'Re-solving over its price…' : 'Show its value'} disabled={sweep.isPending} onPress={run} testID="insect-sweep" />
+      {sweep.isPending ? <ActivityIndicator color={colors.brand} /> : null}
+      <FormMessage tone="danger" text={sweep.isError ? describeError(sweep.error) : null} />
+      {data ? (
+        <View style={styles.result} testID="insect-value-result">
+          <AppText testID="insect-enters">
+            {data.sweep.entersAtPrice === null
+              ? `${data.ingredientName} does not enter this mix at any price from ${steps[0]?.pricePerKg.toFixed(2)} to ${steps[steps.length - 1]?.pricePerKg.toFixed(2)} per kg (or a minimum keeps it in at every price).`
+              : `${data.ingredientName} enters the mix at ${data.sweep.entersAtPrice.toFixed(3)} per kg or less; today’s price is ${data.currentPricePerKg.toFixed(3)} per kg.`}
+          </AppText>
+          <PriceSweepChart data={data} />
+          {data.sweep.breakpoints.length ? (
+            <AppText variant="small" muted>
+              Its inclusion changes at {data.sweep.breakpoints.map((b) => b.toFixed(3)).join(', ')} per kg. At the lowest price it makes {pct(steps[0]?.percent ?? 0, 1)} % of the batch.
+            </AppText>
+          ) : null}
+        </View>
+      ) : null}
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({ result: { gap: space.md } });

@@ -1,0 +1,73 @@
+import { useState } from 'react';
+import { Pressable, StyleSheet, View } from 'react-native';
+import { useRouter } from 'expo-router';
+
+import { useFormulasQuery } from '@/api/formulas';
+import { useActiveMembership } from '@/api/session';
+import { ErrorState } from '@/components/error-state';
+import { Screen } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { AppText, Figure } from '@/components/ui/text';
+import type { FormulaSummary } from '@/shared/schemas/formulas';
+import { colors, radius, space } from '@/theme';
+
+import { money } from './format';
+import { NewFormulaForm } from './new-formula';
+import { StatusBadge } from './status-badge';
+
+/** The organization's formulas, each with its latest kept version and the approved one. */
+export function FormulaList() {
+  const formulas = useFormulasQuery();
+  const { can } = useActiveMembership();
+  const router = useRouter();
+  const [creating, setCreating] = useState(false);
+
+  return (
+    <Screen title="Formulas" lead="The cheapest mix that meets a specification at today’s prices. All amounts are as fed." testID="screen-formulas">
+      {can('formulas:solve') ? (
+        creating ? (
+          <NewFormulaForm onCancel={() => setCreating(false)} onCreated={(id) => router.push(`/?formula=${id}`)} />
+        ) : (
+          <Button label="New formula" onPress={() => setCreating(true)} testID="new-formula" />
+        )
+      ) : null}
+      {formulas.isPending ? <AppText muted>Loading formulas…</AppText> : null}
+      {formulas.isError ? <ErrorState error={formulas.error} onRetry={() => formulas.refetch()} /> : null}
+      {formulas.data?.length === 0 ? <AppText muted>No formulas yet. Start one with “New formula”.</AppText> : null}
+      <View style={styles.list}>
+        {formulas.data?.map((f) => <FormulaRow key={f.id} formula={f} onOpen={() => router.push(`/?formula=${f.id}`)} />)}
+      </View>
+    </Screen>
+  );
+}
+
+function FormulaRow({ formula, onOpen }: { formula: FormulaSummary; onOpen: () => void }) {
+  const v = formula.latestVersion;
+  return (
+    <Pressable onPress={onOpen} role="link" style={styles.row} testID={`formula-${formula.id}`} aria-label={`Open ${formula.name}`}>
+      <View style={styles.rowMain}>
+        <AppText variant="lead" style={styles.name}>{formula.name}</AppText>
+        <AppText variant="small" muted>
+          {formula.species?.name ?? 'No species'} · {formula.specification?.name ?? 'no specification'} · {formula.ingredientCount} ingredients
+        </AppText>
+        <View style={styles.badges}>
+          {v ? <StatusBadge status={v.status} label={`Version ${v.number}`} /> : <AppText variant="caption" muted>Not solved and kept yet</AppText>}
+          {formula.approvedVersion ? <StatusBadge status="approved" label={`Version ${formula.approvedVersion.number} approved`} /> : null}
+        </View>
+      </View>
+      <View style={styles.rowFigures}>
+        <Figure value={formula.batchKg.toFixed(0)} unit="kg batch" />
+        {v?.costPerTonne != null ? <Figure value={money(v.costPerTonne)} unit="per t" /> : null}
+      </View>
+    </Pressable>
+  );
+}
+
+const styles = StyleSheet.create({
+  list: { gap: space.md },
+  row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, justifyContent: 'space-between', padding: space.lg, borderRadius: radius.lg, backgroundColor: colors.paperRaised, borderWidth: 1, borderColor: colors.rule },
+  rowMain: { flex: 1, minWidth: 220, gap: space.xs },
+  name: { color: colors.brand, fontWeight: '600' },
+  badges: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  rowFigures: { alignItems: 'flex-end', gap: space.xs },
+});

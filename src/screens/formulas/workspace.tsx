@@ -1,0 +1,190 @@
+import { useMemo, useState } from 'react';
+import { ActivityIndicator, StyleSheet, useWindowDimensions, View } from 'react-native';
+import { useRouter } from 'expo-router';
+import { useFormik } from 'formik';
+
+import { useFormulaChoicesQuery, useFormulaQuery, useFormulaSolveMutation, useFormulaUpdateMutation, useFormulaVersionQuery, useVersionKeepMutation } from '@/api/formulas';
+import { useActiveMembership } from '@/api/session';
+import { ErrorState } from '@/components/error-state';
+import { FormMessage } from '@/components/form-message';
+import { Screen } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { AppText } from '@/components/ui/text';
+import { applyServerErrors } from '@/lib/form-errors';
+import type { FormulaDetail, FormulaSolve, IngredientChoice } from '@/shared/schemas/formulas';
+import { colors, space, WIDE_MIN_WIDTH } from '@/theme';
+
+import { when } from './format';
+import { IngredientPicker } from './ingredient-picker';
+import { InsectValue } from './insect-value';
+import { inputsFromValues, InputsForm, inputsSchema, valuesFromFormula, type InputValues } from './inputs-form';
+import { ResultPanel } from './result-panel';
+import { VersionsPanel } from './versions-panel';
+
+/** The formula workspace: inputs on the left (or first on a phone), the result and its explanations beside them. */
+export function FormulaWorkspace({ id }: { id: number }) {
+  const formula = useFormulaQuery(id);
+  const router = useRouter();
+  if (formula.isError) {
+    return (
+      <Screen title="Formula" testID="screen-formula">
+        <ErrorState error={formula.error} onRetry={() => formula.refetch()} />
+        <Button label="Back to formulas" tone="quiet" onPress={() => router.push('/')} />
+      </Screen>
+    );
+  }
+  if (!formula.data) {
+    return (
+      <Screen title="Formula" testID="screen-formula">
+        <AppText muted>Loading the formula…</AppText>
+      </Screen>
+    );
+  }
+  // Keyed by revision: a saved change from elsewhere starts the form afresh.
+  return <Workspace key={`${formula.data.id}-${formula.data.revision}`} formula={formula.data} />;
+}
+
+type Shown = { kind: 'solve'; solve: FormulaSolve } | { kind: 'version'; versionId: number } | null;
+
+function Workspace({ formula }: { formula: FormulaDetail }) {
+  const { width } = useWindowDimensions();
+  const wide = width >= WIDE_MIN_WIDTH;
+  const router = useRouter();
+  const { can } = useActiveMembership();
+  const solve = useFormulaSolveMutation(formula.id);
+  const keep = useVersionKeepMutation(formula.id);
+  const save = useFormulaUpdateMutation(formula.id);
+  const [shown, setShown] = useState<Shown>(formula.latestVersion ? { kind: 'version', versionId: formula.latestVersion.id } : null);
+  const [message, setMessage] = useState<{ tone: 'danger' | 'ok'; text: string } | null>(null);
+  const [picking, setPicking] = useState(false);
+  const version = useFormulaVersionQuery(formula.id, shown?.kind === 'version' ? shown.versionId : null);
+  const choices = useFormulaChoicesQuery(formula.specification?.id, picking);
+
+  const form = useFormik<InputValues>({
+    initialValues: valuesFromFormula(formula),
+    validationSchema: inputsSchema,
+    validateOnChange: false,
+    onSubmit: async (values, helpers) => {
+      setMessage(null);
+      try {
+        const result = await solve.mutateAsync(inputsFromValues(values));
+        setShown({ kind: 'solve', solve: result });
+      } catch (error) {
+        // The inputs stay as typed; the message says what to fix.
+        setMessage({ tone: 'danger', text: applyServerErrors(error, helpers) });
+      }
+    },
+  });
+
+  const validInputs = () => {
+    const errors = form.errors;
+    return Object.keys(errors).length ? null : inputsFromValues(form.values);
+  };
+
+  const keepVersion = async () => {
+    const errors = await form.validateForm();
+    if (Object.keys(errors).length) return setMessage({ tone: 'danger', text: 'Some inputs need fixing first (marked in red).' });
+    setMessage(null);
+    try {
+      const v = await keep.mutateAsync({ inputs: inputsFromValues(form.values) });
+      setShown({ kind: 'version', versionId: v.id });
+      setMessage({ tone: 'ok', text: `Kept as version ${v.number}.` });
+    } catch (error) {
+      setMessage({ tone: 'danger', text: applyServerErrors(error, form) });
+    }
+  };
+
+  const saveInputs = async () => {
+    const errors = await form.validateForm();
+    if (Object.keys(errors).length) return setMessage({ tone: 'danger', text: 'Some inputs need fixing first (marked in red).' });
+    try {
+      await save.mutateAsync({ inputs: inputsFromValues(form.values), expectedRevision: formula.revision });
+      setMessage({ tone: 'ok', text: 'Inputs saved.' });
+    } catch (error) {
+      setMessage({ tone: 'danger', text: applyServerErrors(error, form) });
+    }
+  };
+
+  const togglePick = (c: IngredientChoice) => {
+    const list = form.values.ingredients;
+    if (list.some((r) => r.ingredientId === c.id)) form.setFieldValue('ingredients', list.filter((r) => r.ingredientId !== c.id));
+    else form.setFieldValue('ingredients', [...list, { ingredientId: c.id, name: c.name, insect: c.category === 'insect_meal', libraryPrice: c.pricePerKg, priceDate: c.priceDate, price: '', minPct: '', maxPct: '' }]);
+  };
+
+  const meals = useMemo(() => form.values.ingredients.filter((r) => r.insect).map((r) => ({ id: r.ingredientId, name: r.name })), [form.values.ingredients]);
+  const busy = solve.isPending || keep.isPending;
+
+  const actions = (
+    <View style={styles.actions}>
+      <Button label={solve.isPending ? 'Solving…' : 'Solve'} onPress={() => form.handleSubmit()} disabled={busy} testID="solve" />
+      {can('formulas:solve') ? <Button label={keep.isPending ? 'Keeping…' : 'Keep as version'} tone="quiet" onPress={keepVersion} disabled={busy} testID="keep-version" /> : null}
+      <Button label="Save inputs" tone="quiet" onPress={saveInputs} disabled={busy || save.isPending} testID="save-inputs" />
+    </View>
+  );
+
+  const results = (
+    <View style={styles.column}>
+      {actions}
+      {busy ? (
+        <View style={styles.working} testID="solve-working" accessibilityRole="progressbar">
+          <ActivityIndicator color={colors.brand} />
+          <AppText>{keep.isPending ? 'Solving and keeping a version on the server…' : 'Solving on the server…'}</AppText>
+        </View>
+      ) : null}
+      <FormMessage tone={message?.tone ?? 'ok'} text={message?.text} testID="workspace-message" />
+      {shown?.kind === 'solve' ? <ResultPanel solve={shown.solve} heading={`Solved just now with today’s library values, not kept (${when(shown.solve.solvedAt)})`} /> : null}
+      {shown?.kind === 'version' && version.data ? (
+        <ResultPanel solve={version.data.snapshot} heading={`Version ${version.data.number}, kept by ${version.data.createdBy} ${when(version.data.createdAt)}`} />
+      ) : null}
+      {shown?.kind === 'version' && version.isError ? <ErrorState error={version.error} onRetry={() => version.refetch()} /> : null}
+      {!shown ? <AppText muted>Press Solve to see the least-cost mix for these inputs.</AppText> : null}
+      <InsectValue formulaId={formula.id} meals={meals} currentInputs={validInputs} />
+      <VersionsPanel formula={formula} viewing={shown?.kind === 'version' ? shown.versionId : null} onView={(versionId) => setShown({ kind: 'version', versionId })} />
+    </View>
+  );
+
+  const inputs = (
+    <View style={styles.column}>
+      {picking ? (
+        <Card title="Add or remove ingredients" testID="workspace-picker">
+          {choices.data ? <IngredientPicker choices={choices.data.ingredients} selected={form.values.ingredients.map((r) => r.ingredientId)} onToggle={togglePick} /> : <AppText muted>Loading your library…</AppText>}
+          {choices.isError ? <ErrorState error={choices.error} onRetry={() => choices.refetch()} /> : null}
+          <Button label="Done" onPress={() => setPicking(false)} />
+        </Card>
+      ) : null}
+      <InputsForm
+        form={form}
+        onRemoveIngredient={(i) => form.setFieldValue('ingredients', form.values.ingredients.filter((_, k) => k !== i))}
+        onAddIngredients={() => setPicking(true)}
+        footer={wide ? null : actions}
+      />
+    </View>
+  );
+
+  return (
+    <Screen title={formula.name} lead={`${formula.species?.name ?? ''}${formula.specification ? ` · ${formula.specification.name}` : ''} · every amount as fed`} testID="screen-formula">
+      <Button label="← All formulas" tone="quiet" onPress={() => router.push('/')} testID="back-to-formulas" />
+      {wide ? (
+        <View style={styles.wide}>
+          <View style={styles.inputsWide}>{inputs}</View>
+          <View style={styles.resultsWide}>{results}</View>
+        </View>
+      ) : (
+        <View style={styles.column}>
+          {results}
+          {inputs}
+        </View>
+      )}
+    </Screen>
+  );
+}
+
+const styles = StyleSheet.create({
+  wide: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  inputsWide: { flex: 5, minWidth: 0 },
+  resultsWide: { flex: 6, minWidth: 0 },
+  column: { gap: space.lg },
+  actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  working: { flexDirection: 'row', alignItems: 'center', gap: space.md, padding: space.md, backgroundColor: colors.brandSoft, borderRadius: 8 },
+});

@@ -18,6 +18,7 @@ import { formulationRouter } from './routes/formulation';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
 import { labImportsRouter } from './routes/lab-imports';
+import { libraryRoutes } from './routes/library-routes';
 import { membersRouter } from './routes/members';
 import { supplyPlansRouter } from './routes/supply-plans';
 
@@ -72,6 +73,7 @@ export function createApp({ db, mailer, devInbox, publicUrl, secureCookies = fal
   api.use('/members', membersRouter({ db }));
   api.use('/dev/mail', devMailRouter({ inbox: devInbox }));
   api.use('/', formulationRouter());
+  api.use('/', libraryRoutes({ db }));
   api.use('/formulas', formulasRouter({ db }));
   api.use('/supply-plans', supplyPlansRouter({ db }));
   api.use('/', labImportsRouter({ db }));

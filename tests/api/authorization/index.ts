@@ -4,3 +4,4 @@ export { formulationRules } from './formulation.rules';
 export { formulasRules } from './formulas.rules';
 export { supplyRules } from './supply.rules';
 export { labImportsRules } from './lab-imports.rules';
+export { libraryRules } from './library.rules';

@@ -43,7 +43,8 @@ async function main(): Promise<number> {
   }
 
   const needsDb = files.some((file) => !file.includes(`${join('tests', 'unit')}`));
-  const instance = describeInstance(join(ROOT, '.data', 'mariadb-test'), TEST_DB_PORT);
+  // One data directory per port, so runs on different ports never wipe each other's server.
+  const instance = describeInstance(join(ROOT, '.data', `mariadb-test-${TEST_DB_PORT}`), TEST_DB_PORT);
   if (needsDb) {
     // A new data directory every run: tests never see leftovers or the demo data.
     await startMariadb(instance, { fresh: true, small: true });

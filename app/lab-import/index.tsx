@@ -1,0 +1,5 @@
+import { LabImportScreen } from '@/screens/lab-import';
+
+export default function LabImportRoute() {
+  return <LabImportScreen />;
+}

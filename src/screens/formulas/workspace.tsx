@@ -115,17 +115,18 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
   const meals = useMemo(() => form.values.ingredients.filter((r) => r.insect).map((r) => ({ id: r.ingredientId, name: r.name })), [form.values.ingredients]);
   const busy = solve.isPending || keep.isPending;
 
-  const actions = (
+  // On a phone the buttons also close the (long) inputs; the second set carries its own test ids.
+  const actions = (suffix = '') => (
     <View style={styles.actions}>
-      <Button label={solve.isPending ? 'Solving…' : 'Solve'} onPress={() => form.handleSubmit()} disabled={busy} testID="solve" />
-      {can('formulas:solve') ? <Button label={keep.isPending ? 'Keeping…' : 'Keep as version'} tone="quiet" onPress={keepVersion} disabled={busy} testID="keep-version" /> : null}
-      <Button label="Save inputs" tone="quiet" onPress={saveInputs} disabled={busy || save.isPending} testID="save-inputs" />
+      <Button label={solve.isPending ? 'Solving…' : 'Solve'} onPress={() => form.handleSubmit()} disabled={busy} testID={`solve${suffix}`} />
+      {can('formulas:solve') ? <Button label={keep.isPending ? 'Keeping…' : 'Keep as version'} tone="quiet" onPress={keepVersion} disabled={busy} testID={`keep-version${suffix}`} /> : null}
+      <Button label="Save inputs" tone="quiet" onPress={saveInputs} disabled={busy || save.isPending} testID={`save-inputs${suffix}`} />
     </View>
   );
 
   const results = (
     <View style={styles.column}>
-      {actions}
+      {actions()}
       {busy ? (
         <View style={styles.working} testID="solve-working" accessibilityRole="progressbar">
           <ActivityIndicator color={colors.brand} />
@@ -157,7 +158,7 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
         form={form}
         onRemoveIngredient={(i) => form.setFieldValue('ingredients', form.values.ingredients.filter((_, k) => k !== i))}
         onAddIngredients={() => setPicking(true)}
-        footer={wide ? null : actions}
+        footer={wide ? null : actions('-end')}
       />
     </View>
   );

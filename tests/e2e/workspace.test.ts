@@ -1,0 +1,148 @@
+import assert from 'node:assert/strict';
+import { join } from 'node:path';
+import { after, before, describe, test } from 'node:test';
+import { and, eq, isNull } from 'drizzle-orm';
+import type { Browser, Page } from 'playwright-core';
+
+import { DEMO_PASSWORD } from '../../server/db/demo/accounts';
+import { formulas, ingredients, organizations, specifications } from '../../server/db/schema';
+import { seedDemoData } from '../../server/db/seed';
+import { WEB_DIST } from '../../server/index';
+import { startTestApp, type TestApp } from '../helpers/app';
+import { launchBrowser, PHONE, signInThroughForm, TEST_OUTPUT, WIDE } from '../helpers/browser';
+
+const visible = (page: Page, testId: string) => page.locator(`[data-testid="${testId}"]:visible`);
+const NUTRITIONIST = 'nutritionist@tamsby.example';
+const OPERATOR = 'operator@tamsby.example';
+
+/** The formula workspace in Chromium on the demo scenario, at phone and wide sizes, with screenshots. */
+describe('formula workspace in the browser', () => {
+  let t: TestApp;
+  let browser: Browser;
+  const ids: Record<string, number> = {};
+
+  before(async () => {
+    t = await startTestApp('e2e_workspace', { webDist: WEB_DIST });
+    const db = t.database.db;
+    await seedDemoData(db);
+    const [mill] = await db.select().from(organizations).where(eq(organizations.name, 'Tamsby Cooperative Feed Mill'));
+    const [refGrower] = await db.select().from(specifications).where(and(isNull(specifications.organizationId), eq(specifications.code, 'nrc1994-broiler-grower')));
+    ids.grower = (await db.select().from(specifications).where(and(eq(specifications.organizationId, mill.id), eq(specifications.copiedFromId, refGrower.id))))[0].id;
+    for (const code of ['maize', 'soybean-meal-48', 'soybean-oil', 'limestone', 'dicalcium-phosphate', 'salt', 'l-lysine-hcl', 'dl-methionine', 'l-threonine']) {
+      const [ref] = await db.select().from(ingredients).where(and(isNull(ingredients.organizationId), eq(ingredients.code, code)));
+      ids[code] = (await db.select().from(ingredients).where(and(eq(ingredients.organizationId, mill.id), eq(ingredients.copiedFromId, ref.id))))[0].id;
+    }
+    ids.meal = (await db.select().from(ingredients).where(and(eq(ingredients.organizationId, mill.id), eq(ingredients.name, 'Larvae meal, partially defatted (Orrin Hollow contract)'))))[0].id;
+    ids.demoGrower = (await db.select().from(formulas).where(eq(formulas.name, 'Broiler grower with larvae meal')))[0].id;
+    ids.demoFinisher = (await db.select().from(formulas).where(eq(formulas.name, 'Broiler finisher without added fat')))[0].id;
+    browser = await launchBrowser();
+  });
+  after(async () => {
+    await browser?.close();
+    await t?.close();
+  });
+
+  test('at 1280 px: build a broiler grower from the demo library, solve, see mix, chart and caution; make it infeasible and read the advice', async () => {
+    const page = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(page, t.server.baseUrl, NUTRITIONIST, DEMO_PASSWORD);
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-list.png'), fullPage: true });
+    await visible(page, 'new-formula').click();
+    await visible(page, 'new-formula-name').fill('Browser broiler grower');
+    await visible(page, `new-formula-spec-${ids.grower}`).click();
+    for (const code of ['maize', 'soybean-meal-48', 'soybean-oil', 'limestone', 'dicalcium-phosphate', 'salt', 'l-lysine-hcl', 'dl-methionine', 'l-threonine']) {
+      await visible(page, `pick-${ids[code]}`).click();
+    }
+    // Insect meals are one chip away.
+    await visible(page, 'picker-filter-insect').click();
+    await visible(page, `pick-${ids.meal}`).click();
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-new-formula.png'), fullPage: true });
+    await visible(page, 'new-formula-submit').click();
+    await visible(page, 'screen-formula').waitFor();
+    assert.match(new URL(page.url()).search, /formula=\d+/);
+
+    await visible(page, 'solve').click();
+    await visible(page, 'mix-table').waitFor();
+    await visible(page, 'nutrient-chart').waitFor();
+    await visible(page, 'caution-banner').waitFor();
+    assert.match(await visible(page, 'cost-per-tonne').innerText(), /^\d+\.\d{2}\s+per tonne$/);
+    assert.ok((await page.locator('[data-testid^="mix-row-"]:visible').count()) >= 3, 'a mix of several ingredients');
+    assert.ok((await page.locator('[data-testid="shadow-price"]:visible').count()) >= 1, 'binding bounds explained');
+    assert.match(await visible(page, 'formula-result').innerText(), /as fed/);
+    // Wide: inputs on the left, results on the right.
+    const inputs = await visible(page, 'formula-inputs').boundingBox();
+    const result = await visible(page, 'formula-result').boundingBox();
+    assert.ok(inputs && result && inputs.x + inputs.width <= result.x + 1, 'inputs sit left of the results');
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-result.png'), fullPage: true });
+
+    // Energy above any ingredient's: no mix can exist.
+    await visible(page, 'bound-amen_poultry-min').fill('9000');
+    await visible(page, 'solve').click();
+    await visible(page, 'infeasible-advice').waitFor();
+    const advice = await visible(page, 'infeasible-advice').innerText();
+    assert.match(advice, /AMEn/);
+    assert.ok((await page.locator('[data-testid="relaxation"]:visible').count()) >= 1, 'the advice is in sentences, never an empty table');
+    await visible(page, 'caution-banner').waitFor();
+    assert.equal(await visible(page, 'bound-amen_poultry-min').inputValue(), '9000', 'inputs kept');
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-infeasible.png'), fullPage: true });
+    await page.close();
+  });
+
+  test('at 375 px: the demo larvae meal formula solves, mix and chart stack, and the insect meal value chart shows where it enters', async () => {
+    const page = await browser.newPage({ viewport: PHONE });
+    await signInThroughForm(page, t.server.baseUrl, NUTRITIONIST, DEMO_PASSWORD);
+    await visible(page, `formula-${ids.demoGrower}`).click();
+    await visible(page, 'screen-formula').waitFor();
+    await visible(page, 'solve').click();
+    await visible(page, 'solve-working').waitFor({ state: 'detached' }).catch(() => undefined);
+    await visible(page, 'nutrient-chart').waitFor();
+    const mix = await visible(page, 'mix-table').boundingBox();
+    const chart = await visible(page, 'nutrient-chart').boundingBox();
+    assert.ok(mix && chart && chart.y >= mix.y + mix.height - 1, 'on a phone the chart sits under the mix');
+    assert.match(await visible(page, `mix-row-${ids.meal}`).innerText(), /insect meal/);
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-result.png'), fullPage: true });
+    await visible(page, 'insect-sweep').click();
+    await visible(page, 'price-sweep-chart').waitFor();
+    assert.match(await visible(page, 'insect-enters').innerText(), /enters the mix at \d+\.\d{3} per kg or less/);
+    const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
+    assert.ok(scrollWidth <= PHONE.width, `page is ${scrollWidth} px wide at ${PHONE.width} px`);
+    await visible(page, 'insect-value').screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-insect-value.png') });
+    await page.close();
+  });
+
+  test('a nutritionist approves a version; the mill operator sees it, with the caution, and nothing else', async () => {
+    const page = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(page, t.server.baseUrl, NUTRITIONIST, DEMO_PASSWORD);
+    await page.goto(`${t.server.baseUrl}/?formula=${ids.demoGrower}`);
+    await visible(page, 'screen-formula').waitFor();
+    await visible(page, 'approve-version-1').click();
+    await page.locator('[data-testid="version-1"]:visible', { hasText: 'the mill uses this one' }).waitFor();
+    await visible(page, 'keep-version').click();
+    await visible(page, 'version-2').waitFor();
+    await visible(page, 'compare-result').waitFor();
+    assert.match(await visible(page, 'compare-result').innerText(), /Cost per tonne: A/);
+    await visible(page, 'versions-panel').screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-versions.png') });
+    // The infeasible demo formula cannot be approved: no approve button on its version.
+    await page.goto(`${t.server.baseUrl}/?formula=${ids.demoFinisher}`);
+    await visible(page, 'infeasible-advice').waitFor();
+    assert.equal(await page.locator('[data-testid="approve-version-1"]:visible').count(), 0);
+    await page.close();
+
+    const op = await browser.newPage({ viewport: PHONE });
+    await signInThroughForm(op, t.server.baseUrl, OPERATOR, DEMO_PASSWORD);
+    await visible(op, 'approved-list').waitFor();
+    await visible(op, `approved-${ids.demoGrower}`).waitFor();
+    const listed = await op.locator('[data-testid^="approved-"]:visible').allInnerTexts();
+    assert.ok(!listed.join(' ').includes('without added fat'), 'an unapproved formula never reaches the mill');
+    await op.screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-operator-list.png'), fullPage: true });
+    await visible(op, `approved-${ids.demoGrower}`).click();
+    await visible(op, 'screen-batch-sheet').waitFor();
+    await visible(op, 'batch-sheet-mix').waitFor();
+    await visible(op, 'caution-banner').waitFor();
+    assert.match(await visible(op, 'batch-sheet-mix').innerText(), /insect meal/);
+    await op.screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-batch-sheet.png'), fullPage: true });
+    // The print of the sheet keeps the caution.
+    await op.emulateMedia({ media: 'print' });
+    assert.ok(await visible(op, 'caution-banner').isVisible());
+    await op.close();
+  });
+});

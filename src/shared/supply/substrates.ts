@@ -118,7 +118,8 @@ export const SUBSTRATES: Record<SubstrateKind, SubstrateDefaults> = {
     moisturePct: { value: 80, source: 'Food waste is about 80 % water (common practice)', confidence: 'from_memory' },
     substrateCpDmPct: memory(18, 'Typical food waste protein 15–20 % DM'),
     yields: {
-      bioconversionDmPct: memory(23, `${LALANDER}: food waste bioconversion about 23 % of DM`),
+      // The trade's rule of thumb (about 20 kg of fresh larvae from 100 kg of food waste at 80 % water) at 32 % larval DM.
+      bioconversionDmPct: { value: 32, source: `Common practice: about 20 kg of fresh larvae from 100 kg of food waste; ${LALANDER} report about 23 % of DM (from memory)`, confidence: 'from_memory' },
       residueDmPct: memory(25, `${LALANDER}: food waste dry matter reduced by about 75 %`),
       larvaeDryMatterPct: GENERAL.larvaeDm,
     },

@@ -84,6 +84,7 @@ describe('formula workspace in the browser', () => {
     await visible(page, 'caution-banner').waitFor();
     assert.equal(await visible(page, 'bound-amen_poultry-min').inputValue(), '9000', 'inputs kept');
     await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-infeasible.png'), fullPage: true });
+    assert.doesNotMatch(advice, /nutrients\[/, 'bounds named in words, not engine paths');
     await page.close();
   });
 
@@ -100,6 +101,8 @@ describe('formula workspace in the browser', () => {
     assert.ok(mix && chart && chart.y >= mix.y + mix.height - 1, 'on a phone the chart sits under the mix');
     assert.match(await visible(page, `mix-row-${ids.meal}`).innerText(), /insect meal/);
     await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-result.png'), fullPage: true });
+    await visible(page, 'mix-table').screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-mix.png') });
+    await visible(page, 'nutrient-chart').screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-nutrient-chart.png') });
     await visible(page, 'insect-sweep').click();
     await visible(page, 'price-sweep-chart').waitFor();
     assert.match(await visible(page, 'insect-enters').innerText(), /enters the mix at \d+\.\d{3} per kg or less/);

@@ -71,7 +71,7 @@ export function PriceSweepChart({ data, currency = '' }: { data: FormulaPriceSwe
             <Circle cx={x(data.currentPricePerKg)} cy={PAD.top + plotH} r={6} fill="none" stroke={colors.ink} strokeWidth={2} />
           ) : null}
           <Line x1={PAD.left} x2={PAD.left + plotW} y1={PAD.top + plotH} y2={PAD.top + plotH} stroke={colors.inkMuted} strokeWidth={1} />
-          <SvgText x={PAD.left + plotW / 2} y={HEIGHT - 6} fontSize={12} fill={colors.inkMuted} textAnchor="middle" fontFamily={fonts.text}>{`price of ${data.ingredientName.slice(0, 40)}, ${currency}/kg as fed`}</SvgText>
+          <SvgText x={PAD.left + plotW / 2} y={HEIGHT - 6} fontSize={12} fill={colors.inkMuted} textAnchor="middle" fontFamily={fonts.text}>{`its price${currency ? `, ${currency}` : ''} per kg as fed`}</SvgText>
         </Svg>
       ) : null}
       <View style={styles.axes}>

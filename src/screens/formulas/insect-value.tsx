@@ -36,7 +36,7 @@ export function InsectValue({ formulaId, meals, currentInputs }: { formulaId: nu
   const steps = data?.sweep.points ?? [];
   return (
     <Card title="Insect meal value" testID="insect-value">
-      <ChoiceChips label="Insect meal" value={chosen} onChange={(v) => { setChosen(v); sweep.reset(); }} options={meals.map((m) => ({ value: String(m.id), label: m.name }))} testID="insect-choice" />
+      <ChoiceChips label="Insect meal" value={chosen} onChange={(v) => { setChosen(v); sweep.reset(); }} options={meals.map((m) => ({ value: String(m.id), label: m.name.length > 34 ? `${m.name.slice(0, 33)}…` : m.name }))} testID="insect-choice" />
       <Button label={sweep.isPending ? 'Re-solving over its price…' : 'Show its value'} disabled={sweep.isPending} onPress={run} testID="insect-sweep" />
       {sweep.isPending ? <ActivityIndicator color={colors.brand} /> : null}
       <FormMessage tone="danger" text={sweep.isError ? describeError(sweep.error) : null} />
@@ -50,7 +50,7 @@ export function InsectValue({ formulaId, meals, currentInputs }: { formulaId: nu
           <PriceSweepChart data={data} />
           {data.sweep.breakpoints.length ? (
             <AppText variant="small" muted>
-              Its inclusion changes at {data.sweep.breakpoints.map((b) => b.toFixed(3)).join(', ')} per kg. At the lowest price it makes {pct(steps[0]?.percent ?? 0, 1)} % of the batch.
+              Its inclusion changes at {[...new Set(data.sweep.breakpoints.map((b) => b.toFixed(3)))].join(', ')} per kg. At the lowest price it makes {pct(steps[0]?.percent ?? 0, 1)} % of the batch.
             </AppText>
           ) : null}
         </View>

@@ -36,7 +36,7 @@ export function ResultPanel({ solve, heading }: { solve: FormulaSolve; heading: 
           ) : (
             <AppText>No single change was found. Check that the chosen ingredients can supply every nutrient with a minimum, and that the inclusion minimums add up to less than 100 %.</AppText>
           )}
-          {r.conflict.length ? <AppText variant="small" muted>Bounds in conflict: {r.conflict.join(', ')}.</AppText> : null}
+          {r.conflict.length ? <AppText variant="small" muted>Bounds that pull against each other here: {conflictWords(r.conflict, solve)}.</AppText> : null}
           {r.closestMix ? (
             <AppText variant="small" muted>
               With those changes the cheapest mix would cost {money(r.closestMix.costPerBatch)} per batch of {solve.problem.batchKg} kg. It does not meet the bounds as set and must not be made.
@@ -118,6 +118,27 @@ function Optimal({ solve, result }: { solve: FormulaSolve; result: OptimalResult
       {result.uniqueMix ? null : <AppText variant="small" muted>Another mix has the same cost; this is one of them.</AppText>}
     </>
   );
+}
+
+/** The engine's bound paths (`nutrients[cp].min`, `groups[group-1].maxKg`…) in words. */
+function conflictWords(paths: string[], solve: FormulaSolve): string {
+  const nutrient = new Map(solve.nutrients.map((n) => [n.id, n.name]));
+  const ingredient = new Map(solve.ingredients.map((u) => [String(u.ingredientId), u.name]));
+  const group = new Map((solve.problem.groups ?? []).map((g) => [g.id, g.name ?? g.id]));
+  const side = (s: string) => (/min/i.test(s) ? 'minimum' : /max|stock|fixed/i.test(s) ? 'maximum' : s);
+  return paths
+    .map((p) => {
+      const m = /^(\w+)\[([^\]]+)\]\.(\w+)$/.exec(p);
+      if (p === 'batchKg') return 'the batch size';
+      if (!m) return p;
+      const [, kind, id, which] = m;
+      if (kind === 'nutrients') return `${nutrient.get(id) ?? id} ${side(which)}`;
+      if (kind === 'ratios') return `${id.split(':').map((n) => nutrient.get(n) ?? n).join(' : ')} ratio ${side(which)}`;
+      if (kind === 'groups') return `${group.get(id) ?? id} ${side(which)}`;
+      if (kind === 'ingredients') return `${ingredient.get(id) ?? id} ${side(which)}`;
+      return p;
+    })
+    .join('; ');
 }
 
 /** Ingredient, % of the batch, kg per batch and share of the cost. */

@@ -43,7 +43,7 @@ export const errorHandler: ErrorRequestHandler = (error, _req, res, _next) => {
     return;
   }
   if ((error as { type?: string }).type === 'entity.too.large') {
-    res.status(413).json({ error: { code: 'too_large', message: 'The request body is too large.' } });
+    res.status(413).json({ error: { code: 'too_large', message: 'The request is larger than the server takes (2 MB). For a lab file, split it or remove columns you do not need; nothing was saved.' } });
     return;
   }
   if (isDatabaseDown(error)) {

@@ -6,3 +6,4 @@ export * from './requirements';
 export * from './formulas';
 export * from './supply';
 export * from './lab-imports';
+export * from './outputs';

@@ -16,6 +16,7 @@ import { publicBaseUrl } from '../auth/session-middleware';
 import { hashToken, newToken } from '../auth/tokens';
 import type { Db } from '../db/client';
 import { addMembership, findOpenInvitation, findUserByEmail, getMembership, listMemberships } from '../db/queries/accounts';
+import { copyReferenceLibrary } from '../db/queries/ingredients';
 import { invitations, organizations, passwordResets, sessions, users } from '../db/schema';
 import { access } from '../http/access';
 import { HttpError, notFound } from '../http/errors';
@@ -66,6 +67,11 @@ export function authRouter(deps: AccountsDeps): Router {
       await addMembership(tx as unknown as Db, userId, org.id, 'owner');
       return org.id;
     });
+    // A new organization starts its own library as a copy of the reference tables (its own transaction;
+    // should it fail, the library screen still offers the copy).
+    if (!invitation) {
+      await copyReferenceLibrary(db, organizationId).catch((error: unknown) => console.error('Reference library copy failed for a new organization', error));
+    }
     res.status(201).json(await startSession(deps, res, userId, organizationId));
   });
 

@@ -172,3 +172,24 @@ describe('accounts', () => {
     });
   });
 });
+
+describe('a new organization', () => {
+  let t: TestApp;
+  before(async () => {
+    t = await startTestApp('new_org_library');
+    const { seedDemoData } = await import('../../server/db/seed');
+    await seedDemoData(t.database.db);
+  });
+  after(async () => t?.close());
+
+  test('starts with its own library copied from the reference tables', async () => {
+    const c = client(t.server.baseUrl);
+    const signUp = await c.call('POST', '/api/auth/sign-up', { email: 'fresh@example.org', password: 'a-long-password-1', name: 'Fresh', organizationName: 'Fresh Farm', organizationKind: 'farm' });
+    assert.equal(signUp.status, 201);
+    const own = await c.call('GET', '/api/ingredients?library=own&pageSize=5');
+    const reference = await c.call('GET', '/api/ingredients?library=reference&pageSize=5');
+    assert.equal(own.status, 200);
+    assert.ok(own.body.total > 0, 'the own library is not empty');
+    assert.equal(own.body.total, reference.body.total, 'every reference ingredient was copied');
+  });
+});

@@ -62,10 +62,11 @@ export function LibraryScreen() {
 
   return (
     <Screen title="Library" lead="Your ingredients, their nutrient values and prices." testID="screen-library">
-      {can('library:write') ? (
+      {can('library:write') || can('lab:import') ? (
         <View style={styles.actions}>
-          <Button label="New ingredient" onPress={() => router.push('/library/new')} testID="ingredient-new" />
-          <Button label="Update prices" tone="quiet" onPress={() => router.push('/library/prices')} testID="prices-open" />
+          {can('library:write') ? <Button label="New ingredient" onPress={() => router.push('/library/new')} testID="ingredient-new" /> : null}
+          {can('library:write') ? <Button label="Update prices" tone="quiet" onPress={() => router.push('/library/prices')} testID="prices-open" /> : null}
+          {can('lab:import') ? <Button label="Import a lab analysis (CSV)" tone="quiet" onPress={() => router.push('/lab-import')} testID="lab-import-open" /> : null}
         </View>
       ) : null}
       <View style={[styles.filters, wide && styles.filtersWide]}>

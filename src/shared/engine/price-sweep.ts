@@ -66,6 +66,9 @@ export function priceSweep(input: unknown): PriceSweepOutcome {
   const breakpoints: number[] = [];
   let entersAtPrice: number | null = null;
   let price = sp.fromPrice;
+  // A degenerate optimum can report the same upper end again just above it: step further each time
+  // it does, and never list one price twice.
+  let nudge = 1e-9;
   for (let k = 0; k < MAX_BREAKPOINTS; k++) {
     const o = solveAt(price, true);
     if (o.status !== 'optimal' || !o.costLow || !o.costHigh) break;
@@ -79,8 +82,12 @@ export function priceSweep(input: unknown): PriceSweepOutcome {
     const high = o.costHigh[j];
     // In the mix at any price (a minimum or fixed amount keeps it there): no entering price.
     if (!Number.isFinite(high)) break;
-    if (high < sp.toPrice) breakpoints.push(high);
-    price = high + 1e-9 * Math.max(1, Math.abs(high));
+    const last = breakpoints[breakpoints.length - 1];
+    const repeated = last !== undefined && high <= last + 1e-7 * Math.max(1, Math.abs(last));
+    if (high < sp.toPrice && !repeated) breakpoints.push(high);
+    nudge = repeated ? nudge * 10 : 1e-9;
+    if (nudge > 1e-3) break;
+    price = Math.max(high, price) + nudge * Math.max(1, Math.abs(high));
   }
   return { status: 'swept', ingredient: sp.ingredient, points, entersAtPrice, breakpoints };
 }

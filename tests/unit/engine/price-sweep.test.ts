@@ -34,3 +34,24 @@ describe('price sweep', () => {
     for (const b of r.breakpoints) assert.ok(b > 0.2 && b < 1.6);
   });
 });
+
+describe('price sweep breakpoints', () => {
+  test('are strictly increasing: no price is listed twice, even at a degenerate optimum', () => {
+    // Two ingredients identical in composition make the optimum degenerate at every price of the swept one.
+    const problem = {
+      batchKg: 1000,
+      ingredients: [
+        { id: 'grain', pricePerKg: 0.2, nutrients: { cp: 9 } },
+        { id: 'meal-a', pricePerKg: 0.5, nutrients: { cp: 45 } },
+        { id: 'meal-b', pricePerKg: 0.5, nutrients: { cp: 45 } },
+        { id: 'insect', pricePerKg: 0.3, maxPercent: 10, nutrients: { cp: 50 } },
+      ],
+      nutrients: [{ id: 'cp', min: 18 }],
+    };
+    const result = priceSweep({ problem, ingredient: 'insect', fromPrice: 0.1, toPrice: 1.5, steps: 8 });
+    assert.equal(result.status, 'swept');
+    if (result.status !== 'swept') return;
+    for (let i = 1; i < result.breakpoints.length; i++) assert.ok(result.breakpoints[i] > result.breakpoints[i - 1], `breakpoints ${result.breakpoints.join(', ')}`);
+    assert.ok(result.entersAtPrice !== null && result.entersAtPrice > 0.45 && result.entersAtPrice < 0.6, `enters at ${result.entersAtPrice}`);
+  });
+});

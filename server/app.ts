@@ -12,6 +12,8 @@ import { HttpError } from './http/errors';
 import type { DevInbox } from './mail/dev-inbox';
 import type { Mailer } from './mail/mailer';
 import { authRouter } from './routes/auth';
+import { batchesRouter } from './routes/batches';
+import { batchSheetsRouter } from './routes/batch-sheets';
 import { devMailRouter } from './routes/dev-mail';
 import { formulasRouter } from './routes/formulas';
 import { formulationRouter } from './routes/formulation';
@@ -20,6 +22,9 @@ import { invitationsRouter } from './routes/invitations';
 import { labImportsRouter } from './routes/lab-imports';
 import { libraryRoutes } from './routes/library-routes';
 import { membersRouter } from './routes/members';
+import { organizationSettingsRouter } from './routes/organization-settings';
+import { rationChecksRouter } from './routes/ration-checks';
+import { sharesRouter } from './routes/shares';
 import { supplyPlansRouter } from './routes/supply-plans';
 
 export type AppOptions = {
@@ -77,6 +82,11 @@ export function createApp({ db, mailer, devInbox, publicUrl, secureCookies = fal
   api.use('/formulas', formulasRouter({ db }));
   api.use('/supply-plans', supplyPlansRouter({ db }));
   api.use('/', labImportsRouter({ db }));
+  api.use('/organization-settings', organizationSettingsRouter({ db }));
+  api.use('/batch-sheets', batchSheetsRouter({ db }));
+  api.use('/batches', batchesRouter({ db }));
+  api.use('/ration-checks', rationChecksRouter({ db }));
+  api.use('/shares', sharesRouter({ db, mailer: accounts.mailer, publicUrl }));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -5,3 +5,4 @@ export { formulasRules } from './formulas.rules';
 export { supplyRules } from './supply.rules';
 export { labImportsRules } from './lab-imports.rules';
 export { libraryRules } from './library.rules';
+export { outputsRules } from './outputs.rules';

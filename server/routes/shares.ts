@@ -9,7 +9,8 @@ import type { Mailer } from '../mail/mailer';
 
 /**
  * Results shared with a farm. Sharing needs results:share and a membership in the farm; reading needs
- * results:read-shared in the receiving organization (another organization's member gets 404).
+ * results:read-shared and a membership in the receiving organization, whichever one is active in the
+ * session (anyone else gets 404).
  */
 export function sharesRouter({ db, mailer, publicUrl }: { db: Db; mailer: Mailer; publicUrl?: string }): Router {
   const router = Router();
@@ -31,13 +32,13 @@ export function sharesRouter({ db, mailer, publicUrl }: { db: Db; mailer: Mailer
   });
 
   router.get('/:token', access.member('results:read-shared'), async (req, res) => {
-    const { organizationId } = requireMembership(req);
-    res.json(await getShare(db, organizationId, shareTokenParams.parse(req.params).token));
+    const { userId } = requireMembership(req);
+    res.json(await getShare(db, userId, shareTokenParams.parse(req.params).token));
   });
 
   router.get('/:token/csv', access.member('results:read-shared'), async (req, res) => {
-    const { organizationId } = requireMembership(req);
-    const { csv, filename } = await getShareCsv(db, organizationId, shareTokenParams.parse(req.params).token);
+    const { userId } = requireMembership(req);
+    const { csv, filename } = await getShareCsv(db, userId, shareTokenParams.parse(req.params).token);
     res.type('text/csv; charset=utf-8').attachment(filename).send(csv);
   });
 

@@ -153,21 +153,26 @@ export async function createShare(
   return { ...summary, recipients, link };
 }
 
-async function findReceived(db: Db, organizationId: number, token: string): Promise<ShareRow> {
-  const [row] = await db.select().from(shares).where(and(eq(shares.token, token), eq(shares.toOrganizationId, organizationId)));
-  if (!row) throw notFound('shared result', token);
+/**
+ * A share the user may read: they are a member (any role) of the receiving organization, whichever
+ * organization is active in their session. Anyone else gets 404, as for any other organization's row.
+ */
+async function findReadable(db: Db, userId: string, token: string): Promise<ShareRow> {
+  const [row] = await db.select().from(shares).where(eq(shares.token, token));
+  const [member] = row ? await db.select({ id: memberships.id }).from(memberships).where(and(eq(memberships.userId, userId), eq(memberships.organizationId, row.toOrganizationId))) : [];
+  if (!row || !member) throw notFound('shared result', token);
   return row;
 }
 
-/** A shared result, for members of the receiving organization only (anyone else: 404). */
-export async function getShare(db: Db, organizationId: number, token: string): Promise<ShareDetail> {
-  const row = await findReceived(db, organizationId, token);
-  return { ...(await summaryOf(db, row)), payload: row.payload, measures: await getMeasures(db, organizationId) };
+/** A shared result, in the receiving organization's units and currency. */
+export async function getShare(db: Db, userId: string, token: string): Promise<ShareDetail> {
+  const row = await findReadable(db, userId, token);
+  return { ...(await summaryOf(db, row)), payload: row.payload, measures: await getMeasures(db, row.toOrganizationId) };
 }
 
-export async function getShareCsv(db: Db, organizationId: number, token: string): Promise<{ csv: string; filename: string }> {
-  const row = await findReceived(db, organizationId, token);
-  return { csv: shareCsv(row.payload, await getMeasures(db, organizationId)), filename: `troughline-shared-${token.slice(0, 8)}.csv` };
+export async function getShareCsv(db: Db, userId: string, token: string): Promise<{ csv: string; filename: string }> {
+  const row = await findReadable(db, userId, token);
+  return { csv: shareCsv(row.payload, await getMeasures(db, row.toOrganizationId)), filename: `troughline-shared-${token.slice(0, 8)}.csv` };
 }
 
 /** What was shared with this organization, newest first. */

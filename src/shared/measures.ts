@@ -86,3 +86,10 @@ export function stepDecimals(step: number): number {
   for (let d = 0; d <= 6; d++) if (Math.abs(Math.round(step * 10 ** d) - step * 10 ** d) < 1e-9) return d;
   return 6;
 }
+
+/** A nutrient level or amount with as many decimals as its size needs (3050; 18.2; 1.07; 0.085). */
+export function formatLevel(v: number): string {
+  const a = Math.abs(v);
+  const digits = a >= 100 ? 0 : a >= 10 ? 1 : a >= 1 ? 2 : 3;
+  return v.toFixed(digits);
+}

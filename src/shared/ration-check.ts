@@ -7,7 +7,7 @@
  * Pure: the server and the phone run the same code through the engine.
  */
 import { evaluateMix, solveFormula } from './engine';
-import { formatMoney, massFromKg, massUnit, pricePerMassUnit, type UnitSystem } from './measures';
+import { formatLevel, formatMoney, massFromKg, massUnit, pricePerMassUnit, type UnitSystem } from './measures';
 import type { EvaluationResult, FormulaProblemInput, FormulaResult } from './schemas/formulation';
 
 /** One ingredient the farmer mixes. `key` is unique in the ration. */
@@ -76,12 +76,8 @@ export type RationCheckOptions = {
   tolerance?: number;
 };
 
-/** A level with as many decimals as its size needs (3,050 kcal/kg; 18.2 %; 1.02 %; 0.085 %). */
-export function level(v: number): string {
-  const a = Math.abs(v);
-  const digits = a >= 100 ? 0 : a >= 10 ? 1 : a >= 1 ? 2 : 3;
-  return v.toFixed(digits);
-}
+/** A level with as many decimals as its size needs (3,050 kcal/kg; 18.2 %; 1.07 %; 0.085 %). */
+export const level = formatLevel;
 
 const withUnit = (v: number, unit: string) => (unit ? `${level(v)} ${unit}` : level(v));
 

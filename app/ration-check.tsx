@@ -1,0 +1,5 @@
+import { RationCheckScreen } from '@/screens/ration-check';
+
+export default function RationCheckRoute() {
+  return <RationCheckScreen />;
+}

@@ -14,6 +14,7 @@ import { space, WIDE_MIN_WIDTH } from '@/theme';
 import { InviteCard } from './invite-card';
 import { MembersCard } from './members-card';
 import { OrganizationsCard } from './organizations-card';
+import { SettingsCard } from './settings-card';
 
 function YouCard() {
   const router = useRouter();
@@ -63,6 +64,7 @@ export function AccountScreen() {
         <View style={styles.column}>
           <MembersCard />
           {can('members:manage') ? <InviteCard /> : null}
+          {can('settings:manage') ? <SettingsCard /> : null}
         </View>
       </View>
     </Screen>

@@ -111,7 +111,7 @@ function SheetTable({ b }: { b: BatchSheetResponse }) {
                   {l.callOut ? <AppText variant="small" style={styles.callOut} testID="sheet-call-out">{l.callOut}</AppText> : null}
                   <AppText variant="caption" muted>{l.percent.toFixed(3)} % of the batch · scale step {l.step} {b.massUnit}</AppText>
                 </View>
-                <Figure value={l.amount.toFixed(l.decimals)} unit={b.massUnit} style={styles.amount} />
+                <Figure value={l.amount.toFixed(l.decimals)} unit={b.massUnit} style={styles.amount} testID="sheet-amount" />
                 <View style={styles.tick} accessibilityLabel="Tick when added" />
               </View>
             ))}

@@ -94,7 +94,8 @@ describe('batch sheets, ration checks and sharing in the browser', () => {
     assert.ok(overflow <= 360, `the page is ${overflow} px wide at 360 px`);
     const submitBox = await visible(page, 'ration-submit').boundingBox();
     assert.ok(submitBox && submitBox.height >= 48, 'a large touch target');
-    await page.screenshot({ path: join(TEST_OUTPUT, 'outputs-ration-check-360.png'), fullPage: true });
+    await visible(page, 'ration-summary').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(TEST_OUTPUT, 'outputs-ration-check-360.png') });
     await page.close();
   });
 

@@ -25,7 +25,6 @@ export const formulaKeys = {
   compare: (id: number, a: number, b: number) => [...formulaKeys.all, 'compare', id, a, b] as const,
   choices: (specificationId?: number) => [...formulaKeys.all, 'choices', specificationId ?? 0] as const,
   approved: () => [...formulaKeys.all, 'approved'] as const,
-  approvedVersion: (versionId: number) => [...formulaKeys.all, 'approved', versionId] as const,
 };
 
 export const formulasQueryOptions = () =>
@@ -63,14 +62,6 @@ export const useFormulaChoicesQuery = (specificationId?: number, enabled = true)
 
 export const useApprovedFormulasQuery = () =>
   useQuery({ queryKey: formulaKeys.approved(), queryFn: ({ signal }) => apiClient.get<ApprovedFormula[]>('/api/formulas/approved', signal), staleTime: STALE.SECONDS.THIRTY });
-
-export const useApprovedVersionQuery = (versionId: number | null) =>
-  useQuery({
-    queryKey: formulaKeys.approvedVersion(versionId ?? 0),
-    queryFn: ({ signal }) => apiClient.get<VersionDetail>(`/api/formulas/approved/${versionId}`, signal),
-    staleTime: STALE.SECONDS.THIRTY,
-    enabled: !!versionId,
-  });
 
 export function useFormulaCreateMutation() {
   const queryClient = useQueryClient();

@@ -138,10 +138,10 @@ describe('formula workspace in the browser', () => {
     assert.ok(!listed.join(' ').includes('without added fat'), 'an unapproved formula never reaches the mill');
     await op.screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-operator-list.png'), fullPage: true });
     await visible(op, `approved-${ids.demoGrower}`).click();
-    await visible(op, 'screen-batch-sheet').waitFor();
-    await visible(op, 'batch-sheet-mix').waitFor();
+    await visible(op, 'screen-batch-sheet-page').waitFor();
+    await visible(op, 'sheet-table').waitFor();
     await visible(op, 'caution-banner').waitFor();
-    assert.match(await visible(op, 'batch-sheet-mix').innerText(), /insect meal/);
+    assert.match(await visible(op, 'sheet-table').innerText(), /larvae meal/i);
     await op.screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-batch-sheet.png'), fullPage: true });
     // The print of the sheet keeps the caution.
     await op.emulateMedia({ media: 'print' });

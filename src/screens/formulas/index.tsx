@@ -3,17 +3,19 @@ import { useLocalSearchParams } from 'expo-router';
 import { useActiveMembership } from '@/api/session';
 
 import { ApprovedFormulas } from './approved';
+import { FarmHome } from './farm-home';
 import { FormulaList } from './list';
 import { FormulaWorkspace } from './workspace';
 
 /**
- * The Formulas section. Planners see their formulas and open one in the workspace (?formula=id);
- * mill operators see only approved versions (?sheet=versionId opens one as a batch sheet).
+ * The Formulas section, by role: planners see their formulas and open one in the workspace (?formula=id);
+ * mill operators see only approved versions, each opening as a batch sheet; farm members check rations
+ * and read what was shared with them.
  */
 export function FormulasScreen() {
-  const { formula, sheet } = useLocalSearchParams<{ formula?: string; sheet?: string }>();
+  const { formula } = useLocalSearchParams<{ formula?: string }>();
   const { can } = useActiveMembership();
-  if (!can('formulas:read')) return <ApprovedFormulas sheetId={sheet ? Number(sheet) : null} />;
-  if (formula) return <FormulaWorkspace id={Number(formula)} />;
-  return <FormulaList />;
+  if (can('formulas:read')) return formula ? <FormulaWorkspace id={Number(formula)} /> : <FormulaList />;
+  if (can('formulas:read-approved')) return <ApprovedFormulas />;
+  return <FarmHome />;
 }

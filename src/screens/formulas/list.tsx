@@ -28,7 +28,10 @@ export function FormulaList() {
         creating ? (
           <NewFormulaForm onCancel={() => setCreating(false)} onCreated={(id) => router.push(`/?formula=${id}`)} />
         ) : (
-          <Button label="New formula" onPress={() => setCreating(true)} testID="new-formula" />
+          <View style={styles.actions}>
+            <Button label="New formula" onPress={() => setCreating(true)} testID="new-formula" />
+            {can('ration:check') ? <Button label="Check a ration" tone="quiet" onPress={() => router.push('/ration-check')} testID="open-ration-check" /> : null}
+          </View>
         )
       ) : null}
       {formulas.isPending ? <AppText muted>Loading formulas…</AppText> : null}
@@ -64,6 +67,7 @@ function FormulaRow({ formula, onOpen }: { formula: FormulaSummary; onOpen: () =
 }
 
 const styles = StyleSheet.create({
+  actions: { flexDirection: 'row', flexWrap: 'wrap', gap: 8 },
   list: { gap: space.md },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, justifyContent: 'space-between', padding: space.lg, borderRadius: radius.lg, backgroundColor: colors.paperRaised, borderWidth: 1, borderColor: colors.rule },
   rowMain: { flex: 1, minWidth: 220, gap: space.xs },

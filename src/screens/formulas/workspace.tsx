@@ -19,6 +19,8 @@ import { when } from './format';
 import { IngredientPicker } from './ingredient-picker';
 import { InsectValue } from './insect-value';
 import { inputsFromValues, InputsForm, inputsSchema, valuesFromFormula, type InputValues } from './inputs-form';
+import { ShareCard } from '@/screens/shared-result/share-card';
+
 import { ResultPanel } from './result-panel';
 import { VersionsPanel } from './versions-panel';
 
@@ -142,6 +144,8 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
       {!shown ? <AppText muted>Press Solve to see the least-cost mix for these inputs.</AppText> : null}
       <InsectValue formulaId={formula.id} meals={meals} currentInputs={validInputs} />
       <VersionsPanel formula={formula} viewing={shown?.kind === 'version' ? shown.versionId : null} onView={(versionId) => setShown({ kind: 'version', versionId })} />
+      {/* Only a kept version can be shared: a farm must see exactly what was solved, not today's re-solve. */}
+      {shown?.kind === 'version' && can('results:share') ? <ShareCard what={{ kind: 'formula_version', formulaId: formula.id, versionId: shown.versionId }} /> : null}
     </View>
   );
 

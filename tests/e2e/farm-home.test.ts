@@ -1,0 +1,36 @@
+import assert from 'node:assert/strict';
+import { after, before, describe, test } from 'node:test';
+import type { Browser, Page } from 'playwright-core';
+
+import { WEB_DIST } from '../../server/index';
+import { createOrganization, createUser, FIXTURE_PASSWORD } from '../helpers/accounts';
+import { startTestApp, type TestApp } from '../helpers/app';
+import { launchBrowser, signInThroughForm } from '../helpers/browser';
+
+const visible = (page: Page, testId: string) => page.locator(`[data-testid="${testId}"]:visible`);
+
+describe('the Formulas section by role', () => {
+  let t: TestApp;
+  let browser: Browser;
+
+  before(async () => {
+    t = await startTestApp('e2e_farm_home', { webDist: WEB_DIST });
+    const farm = await createOrganization(t.database.db, 'Brackenfold Farm', 'farm');
+    await createUser(t.database.db, { email: 'member@brackenfold.example', organizationId: farm.id, role: 'farm_member' });
+    browser = await launchBrowser();
+  });
+  after(async () => {
+    await browser?.close();
+    await t?.close();
+  });
+
+  test('a farm member on a 360 px phone gets the ration check and shared results, never a refusal', async () => {
+    const page = await browser.newPage({ viewport: { width: 360, height: 740 } });
+    await signInThroughForm(page, t.server.baseUrl, 'member@brackenfold.example', FIXTURE_PASSWORD);
+    await visible(page, 'received-shares').waitFor();
+    assert.equal(await page.locator('[data-testid="error-state"]:visible').count(), 0, 'no error where the section opens');
+    await visible(page, 'open-ration-check').click();
+    await visible(page, 'screen-ration-check').waitFor();
+    await page.close();
+  });
+});

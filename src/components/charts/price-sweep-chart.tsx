@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, G, Line, Polyline, Rect, Text as SvgText } from 'react-native-svg';
 
+import type { Units } from '@/lib/measures-format';
 import type { FormulaPriceSweep } from '@/shared/schemas/formulas';
 import { colors, fonts, space } from '@/theme';
 
@@ -16,17 +17,19 @@ function ticks(lo: number, hi: number, n = 4): number[] {
 }
 
 /**
- * Cost per tonne of the formula (line, left axis) and the inclusion of one ingredient (bars, right axis,
- * % of the batch) against that ingredient's price per kg as fed. A dashed line marks the price at which
- * it enters the mix; a ring marks today's price.
+ * Cost per tonne (or short ton) of the formula (line, left axis) and the inclusion of one ingredient
+ * (bars, right axis, % of the batch) against that ingredient's price per kg (or per lb) as fed, in the
+ * organization's currency. A dashed line marks the price at which it enters the mix; a ring marks
+ * today's price. The sweep arrives per kg and per tonne; only the axes are converted.
  */
-export function PriceSweepChart({ data, currency = '' }: { data: FormulaPriceSweep; currency?: string }) {
+export function PriceSweepChart({ data, units }: { data: FormulaPriceSweep; units: Units }) {
   const [width, setWidth] = useState(0);
-  const points = data.sweep.points.filter((p) => p.costPerBatch !== null);
+  const currency = units.currency;
+  const points = data.sweep.points.filter((p) => p.costPerBatch !== null).map((p) => ({ ...p, pricePerKg: units.priceOf(p.pricePerKg) }));
   const per = 1000 / data.batchKg;
-  const costs = points.map((p) => p.costPerBatch! * per);
-  const pMin = data.sweep.points[0]?.pricePerKg ?? 0;
-  const pMax = data.sweep.points[data.sweep.points.length - 1]?.pricePerKg ?? 1;
+  const costs = points.map((p) => units.costOf(p.costPerBatch! * per));
+  const pMin = units.priceOf(data.sweep.points[0]?.pricePerKg ?? 0);
+  const pMax = units.priceOf(data.sweep.points[data.sweep.points.length - 1]?.pricePerKg ?? 1);
   const cLo = Math.min(...costs);
   const cHi = Math.max(...costs);
   const cPad = (cHi - cLo) * 0.1 || Math.max(1, cHi * 0.02);
@@ -39,10 +42,11 @@ export function PriceSweepChart({ data, currency = '' }: { data: FormulaPriceSwe
   const yCost = (c: number) => PAD.top + (1 - (c - yLo) / (yHi - yLo || 1)) * plotH;
   const yInc = (pct: number) => PAD.top + (1 - pct / incMax) * plotH;
   const barW = Math.max(2, (plotW / Math.max(1, data.sweep.points.length)) * 0.6);
-  const enters = data.sweep.entersAtPrice;
+  const enters = data.sweep.entersAtPrice === null ? null : units.priceOf(data.sweep.entersAtPrice);
+  const today = units.priceOf(data.currentPricePerKg);
 
   return (
-    <View style={styles.wrap} onLayout={(e) => setWidth(e.nativeEvent.layout.width)} testID="price-sweep-chart" accessibilityLabel={`Cost per tonne against the price of ${data.ingredientName}`}>
+    <View style={styles.wrap} onLayout={(e) => setWidth(e.nativeEvent.layout.width)} testID="price-sweep-chart" accessibilityLabel={`Cost per ${units.tonneWord} against the price per ${units.mass} of ${data.ingredientName}`}>
       {width > 0 && points.length > 1 ? (
         <Svg width={width} height={HEIGHT}>
           {ticks(yLo, yHi).map((t) => (
@@ -64,18 +68,18 @@ export function PriceSweepChart({ data, currency = '' }: { data: FormulaPriceSwe
           {enters !== null && enters >= pMin && enters <= pMax ? (
             <G testID="sweep-enters-marker">
               <Line x1={x(enters)} x2={x(enters)} y1={PAD.top} y2={PAD.top + plotH} stroke={colors.accent} strokeWidth={2} strokeDasharray="5,4" />
-              <SvgText x={Math.min(x(enters) + 4, PAD.left + plotW - 90)} y={PAD.top + 12} fontSize={11} fill={colors.accent} fontFamily={fonts.text}>{`enters at ${enters.toFixed(3)}/kg`}</SvgText>
+              <SvgText x={Math.min(x(enters) + 4, PAD.left + plotW - 90)} y={PAD.top + 12} fontSize={11} fill={colors.accent} fontFamily={fonts.text}>{`enters at ${enters.toFixed(3)}/${units.mass}`}</SvgText>
             </G>
           ) : null}
-          {data.currentPricePerKg >= pMin && data.currentPricePerKg <= pMax ? (
-            <Circle cx={x(data.currentPricePerKg)} cy={PAD.top + plotH} r={6} fill="none" stroke={colors.ink} strokeWidth={2} />
+          {today >= pMin && today <= pMax ? (
+            <Circle cx={x(today)} cy={PAD.top + plotH} r={6} fill="none" stroke={colors.ink} strokeWidth={2} />
           ) : null}
           <Line x1={PAD.left} x2={PAD.left + plotW} y1={PAD.top + plotH} y2={PAD.top + plotH} stroke={colors.inkMuted} strokeWidth={1} />
-          <SvgText x={PAD.left + plotW / 2} y={HEIGHT - 6} fontSize={12} fill={colors.inkMuted} textAnchor="middle" fontFamily={fonts.text}>{`its price${currency ? `, ${currency}` : ''} per kg as fed`}</SvgText>
+          <SvgText x={PAD.left + plotW / 2} y={HEIGHT - 6} fontSize={12} fill={colors.inkMuted} textAnchor="middle" fontFamily={fonts.text}>{`its price, ${currency} per ${units.mass} as fed`}</SvgText>
         </Svg>
       ) : null}
       <View style={styles.axes}>
-        <AppText variant="caption" style={{ color: colors.brand }}>Line: cost {currency ? `${currency} ` : ''}per tonne of feed (left)</AppText>
+        <AppText variant="caption" style={{ color: colors.brand }}>Line: cost, {currency} per {units.tonneWord} of feed (left)</AppText>
         <AppText variant="caption" style={{ color: colors.accent }}>Bars: inclusion, % of the batch (right)</AppText>
         <AppText variant="caption" muted>Ring: today’s price</AppText>
       </View>

@@ -5,6 +5,7 @@ import { useApprovedFormulasQuery } from '@/api/formulas';
 import { ErrorState } from '@/components/error-state';
 import { Screen } from '@/components/screen';
 import { AppText, Figure } from '@/components/ui/text';
+import { useUnits } from '@/lib/measures-format';
 import { colors, radius, space } from '@/theme';
 
 import { when } from './format';
@@ -13,6 +14,7 @@ import { when } from './format';
 export function ApprovedFormulas() {
   const approved = useApprovedFormulasQuery();
   const router = useRouter();
+  const units = useUnits();
   return (
     <Screen title="Approved formulas" lead="The versions a nutritionist approved for mixing. All amounts as fed." testID="screen-formulas">
       {approved.isPending ? <AppText muted>Loading…</AppText> : null}
@@ -25,7 +27,7 @@ export function ApprovedFormulas() {
               <AppText variant="lead" style={styles.name}>{a.formulaName}</AppText>
               <AppText variant="small" muted>{a.species?.name ?? ''} · version {a.version.number}, approved by {a.version.approvedBy} {when(a.version.approvedAt)}</AppText>
             </View>
-            <Figure value={a.batchKg.toFixed(0)} unit="kg batch" />
+            <Figure value={units.massOf(a.batchKg).toFixed(0)} unit={`${units.mass} batch`} />
           </Pressable>
         ))}
       </View>

@@ -4,6 +4,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 import { ChoiceChips } from '@/components/ui/choice-chips';
 import { TextField } from '@/components/ui/text-field';
 import { AppText, Figure } from '@/components/ui/text';
+import { useUnits } from '@/lib/measures-format';
 import { INGREDIENT_CATEGORY_LABELS } from '@/shared/library-terms';
 import type { IngredientChoice } from '@/shared/schemas/formulas';
 import { colors, radius, space, TOUCH_MIN } from '@/theme';
@@ -16,6 +17,7 @@ type Filter = 'all' | 'insect' | 'selected';
  * shown with the reason and cannot be picked.
  */
 export function IngredientPicker({ choices, selected, onToggle }: { choices: IngredientChoice[]; selected: number[]; onToggle: (choice: IngredientChoice) => void }) {
+  const units = useUnits();
   const [search, setSearch] = useState('');
   const [filter, setFilter] = useState<Filter>('all');
   const shown = useMemo(() => {
@@ -59,7 +61,7 @@ export function IngredientPicker({ choices, selected, onToggle }: { choices: Ing
                 <AppText variant="caption" muted>{INGREDIENT_CATEGORY_LABELS[c.category]}</AppText>
                 {refused ? <AppText variant="caption" style={styles.refused}>{c.offered.message}</AppText> : null}
               </View>
-              {c.pricePerKg !== null ? <Figure value={c.pricePerKg.toFixed(3)} unit="per kg" /> : <AppText variant="caption" muted>no price</AppText>}
+              {c.pricePerKg !== null ? <Figure value={units.priceOf(c.pricePerKg).toFixed(4)} unit={`${units.currency} per ${units.mass}`} /> : <AppText variant="caption" muted>no price</AppText>}
             </Pressable>
           );
         })}

@@ -6,28 +6,34 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { TextField } from '@/components/ui/text-field';
 import { AppText } from '@/components/ui/text';
+import { toInput, toMetric, type Units } from '@/lib/measures-format';
 import type { FormulaDetail, FormulaInputsInput } from '@/shared/schemas/formulas';
 import { colors, space } from '@/theme';
 
-export type IngredientRow = { ingredientId: number; name: string; insect: boolean; libraryPrice: number | null; priceDate: string | null; price: string; minPct: string; maxPct: string };
+/** `saved` keeps the stored per-kg value behind a converted text, so an untouched field goes back to the API unchanged. */
+type Saved = { text: string; metric: number } | null;
+export type IngredientRow = { ingredientId: number; name: string; insect: boolean; libraryPrice: number | null; priceDate: string | null; price: string; savedPrice?: Saved; minPct: string; maxPct: string };
 export type BoundRow = { nutrientId: string; name: string; unit: string; min: string; max: string };
 export type RatioRow = { numeratorId: string; denominatorId: string; label: string; min: string; max: string };
 export type GroupRow = Omit<FormulaDetail['inputs']['groups'][number], 'minPct' | 'maxPct'> & { minPct: string; maxPct: string };
-export type InputValues = { batchKg: string; ingredients: IngredientRow[]; nutrients: BoundRow[]; ratios: RatioRow[]; groups: GroupRow[] };
+/** `batchKg` and `price` hold what the user reads and types: kg or lb, per kg or per lb (see `units`). */
+export type InputValues = { batchKg: string; savedBatch?: Saved; ingredients: IngredientRow[]; nutrients: BoundRow[]; ratios: RatioRow[]; groups: GroupRow[] };
 
 const str = (v: number | null | undefined) => (v === null || v === undefined ? '' : String(v));
 const num = (v: string) => (v.trim() === '' ? null : Number(v.replace(',', '.')));
 
-/** Form values from a formula's saved inputs, with names and units for the labels. */
-export function valuesFromFormula(formula: FormulaDetail): InputValues {
+/** Form values from a formula's saved inputs (kg, per kg), in the organization's units, with names and units for the labels. */
+export function valuesFromFormula(formula: FormulaDetail, units: Units): InputValues {
   const ing = new Map(formula.labels.ingredients.map((i) => [i.id, i]));
   const nut = new Map(formula.labels.nutrients.map((n) => [n.id, n]));
   const name = (id: string) => nut.get(id)?.name ?? id;
+  const batchText = toInput(formula.inputs.batchKg, units.massOf);
   return {
-    batchKg: String(formula.inputs.batchKg),
+    batchKg: batchText,
+    savedBatch: { text: batchText, metric: formula.inputs.batchKg },
     ingredients: formula.inputs.ingredients.map((i) => {
       const l = ing.get(i.ingredientId);
-      return { ingredientId: i.ingredientId, name: l?.name ?? `Ingredient ${i.ingredientId}`, insect: l?.category === 'insect_meal', libraryPrice: l?.pricePerKg ?? null, priceDate: l?.priceDate ?? null, price: str(i.pricePerKg), minPct: str(i.minPct), maxPct: str(i.maxPct) };
+      return { ingredientId: i.ingredientId, name: l?.name ?? `Ingredient ${i.ingredientId}`, insect: l?.category === 'insect_meal', libraryPrice: l?.pricePerKg ?? null, priceDate: l?.priceDate ?? null, ...priceField(i.pricePerKg, units), minPct: str(i.minPct), maxPct: str(i.maxPct) };
     }),
     nutrients: formula.inputs.nutrients.map((b) => ({ nutrientId: b.nutrientId, name: name(b.nutrientId), unit: nut.get(b.nutrientId)?.unit ?? '', min: str(b.min), max: str(b.max) })),
     ratios: formula.inputs.ratios.map((r) => ({ numeratorId: r.numeratorId, denominatorId: r.denominatorId, label: `${name(r.numeratorId)} : ${name(r.denominatorId)}`, min: str(r.min), max: str(r.max) })),
@@ -35,11 +41,24 @@ export function valuesFromFormula(formula: FormulaDetail): InputValues {
   };
 }
 
-/** The API's inputs from the form values. */
-export function inputsFromValues(v: InputValues): FormulaInputsInput {
+function priceField(pricePerKg: number | null | undefined, units: Units): Pick<IngredientRow, 'price' | 'savedPrice'> {
+  if (pricePerKg === null || pricePerKg === undefined) return { price: '', savedPrice: null };
+  const text = toInput(pricePerKg, units.priceOf);
+  return { price: text, savedPrice: { text, metric: pricePerKg } };
+}
+
+/** A typed field back to the API's unit; an untouched field keeps its stored value exactly. */
+function metricOf(text: string, saved: Saved | undefined, convert: (v: number) => number): number | null {
+  if (saved && text.trim() === saved.text) return saved.metric;
+  const typed = num(text);
+  return typed === null ? null : toMetric(typed, convert);
+}
+
+/** The API's inputs from the form values: back to kg and prices per kg, whatever the user typed in. */
+export function inputsFromValues(v: InputValues, units: Units): FormulaInputsInput {
   return {
-    batchKg: Number(v.batchKg.replace(',', '.')),
-    ingredients: v.ingredients.map((i) => ({ ingredientId: i.ingredientId, pricePerKg: num(i.price), minPct: num(i.minPct), maxPct: num(i.maxPct) })),
+    batchKg: metricOf(v.batchKg, v.savedBatch, units.massToKg) ?? Number.NaN,
+    ingredients: v.ingredients.map((i) => ({ ingredientId: i.ingredientId, pricePerKg: metricOf(i.price, i.savedPrice, units.priceToKg), minPct: num(i.minPct), maxPct: num(i.maxPct) })),
     nutrients: v.nutrients.map((b) => ({ nutrientId: b.nutrientId, min: num(b.min), max: num(b.max) })),
     ratios: v.ratios.map((r) => ({ numeratorId: r.numeratorId, denominatorId: r.denominatorId, min: num(r.min), max: num(r.max) })),
     groups: v.groups.map((g) => ({ ...g, minPct: num(g.minPct), maxPct: num(g.maxPct) })),
@@ -58,8 +77,14 @@ const minBelowMax = (row: { min?: string; max?: string; minPct?: string; maxPct?
   return lo === null || hi === null || lo <= hi;
 };
 
-export const inputsSchema = yup.object({
-  batchKg: yup.string().required('Enter the batch size in kg').test('batch', 'The batch must be more than 0 and at most 1,000,000 kg', (v) => !!v && Number(v.replace(',', '.')) > 0 && Number(v.replace(',', '.')) <= 1_000_000),
+/** The largest batch the API takes (1,000,000 kg), in the organization's unit: 1,000,000 kg or 2,204,622 lb. */
+export const maxBatch = (units: Units) => Math.floor(units.massOf(1_000_000));
+
+export const inputsSchemaFor = (units: Units) => yup.object({
+  batchKg: yup
+    .string()
+    .required(`Enter the batch size in ${units.mass}`)
+    .test('batch', `The batch must be more than 0 and at most ${maxBatch(units).toLocaleString('en-US')} ${units.mass}`, (v) => !!v && Number(v.replace(',', '.')) > 0 && Number(v.replace(',', '.')) <= maxBatch(units)),
   ingredients: yup
     .array(yup.object({ price: optionalNumber(1_000_000), minPct: optionalNumber(100, ' %'), maxPct: optionalNumber(100, ' %') }).test('order', 'The minimum is above the maximum', minBelowMax))
     .min(1, 'Choose at least one ingredient'),
@@ -102,12 +127,12 @@ function Pair({ form, base, lo, hi, unit, testID }: { form: Form; base: string; 
  * inclusion limits, and the nutrient, ratio and group bounds. Every number carries its unit; every
  * amount is per kg of feed as fed.
  */
-export function InputsForm({ form, onRemoveIngredient, onAddIngredients, footer }: { form: Form; onRemoveIngredient: (index: number) => void; onAddIngredients: () => void; footer?: React.ReactNode }) {
+export function InputsForm({ form, units, onRemoveIngredient, onAddIngredients, footer }: { form: Form; units: Units; onRemoveIngredient: (index: number) => void; onAddIngredients: () => void; footer?: React.ReactNode }) {
   return (
     <View style={styles.wrap} testID="formula-inputs">
       <Card title="Batch">
-        <AppText variant="small" muted>Basis: as fed. Prices per kg as fed; inclusion limits in % of the batch.</AppText>
-        <TextField label="Batch size" hint="kg as fed" keyboardType="decimal-pad" value={form.values.batchKg} onChangeText={form.handleChange('batchKg')} error={errorAt(form, 'batchKg')} testID="input-batch" />
+        <AppText variant="small" muted>Basis: as fed. Prices in {units.currency} per {units.mass} as fed; inclusion limits in % of the batch; nutrient bounds per kg of feed whatever the units.</AppText>
+        <TextField label="Batch size" hint={`${units.mass} as fed`} keyboardType="decimal-pad" value={form.values.batchKg} onChangeText={form.handleChange('batchKg')} error={errorAt(form, 'batchKg')} testID="input-batch" />
       </Card>
       <Card title={`Ingredients (${form.values.ingredients.length})`}>
         {form.values.ingredients.map((row, i) => (
@@ -120,8 +145,8 @@ export function InputsForm({ form, onRemoveIngredient, onAddIngredients, footer 
               <View style={styles.pairField}>
                 <TextField
                   label="Price"
-                  hint={row.libraryPrice !== null ? `per kg; library ${row.libraryPrice.toFixed(3)} (${row.priceDate})` : 'per kg; no library price'}
-                  placeholder={row.libraryPrice !== null ? row.libraryPrice.toFixed(3) : 'enter a price'}
+                  hint={row.libraryPrice !== null ? `${units.currency} per ${units.mass}; library ${units.money(units.priceOf(row.libraryPrice), 4)} (${row.priceDate})` : `${units.currency} per ${units.mass}; no library price`}
+                  placeholder={row.libraryPrice !== null ? units.priceOf(row.libraryPrice).toFixed(4) : 'enter a price'}
                   keyboardType="decimal-pad"
                   value={row.price}
                   onChangeText={form.handleChange(`ingredients.${i}.price`)}
@@ -137,7 +162,9 @@ export function InputsForm({ form, onRemoveIngredient, onAddIngredients, footer 
         {typeof form.errors.ingredients === 'string' ? <AppText variant="small" style={styles.error}>{form.errors.ingredients}</AppText> : null}
         <Button label="Add ingredients" tone="quiet" onPress={onAddIngredients} testID="add-ingredients" />
       </Card>
+      {/* Concentrations per kg of feed (%, g/kg, kcal/kg): ratios, the same in metric and US units. */}
       <Card title="Nutrient bounds (per kg as fed)">
+        {units.system === 'us' ? <AppText variant="caption" muted testID="per-kg-note">Energy and nutrient levels stay per kg of feed (kcal/kg, g/kg, %) in US units too: they are concentrations, not amounts.</AppText> : null}
         {form.values.nutrients.map((b, i) => (
           <View key={b.nutrientId} style={styles.bound} testID={`input-bound-${b.nutrientId}`}>
             <AppText variant="label">{b.name}</AppText>

@@ -9,6 +9,7 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ChoiceChips } from '@/components/ui/choice-chips';
 import { AppText } from '@/components/ui/text';
+import type { Units } from '@/lib/measures-format';
 import type { FormulaInputsInput } from '@/shared/schemas/formulas';
 import { colors, space } from '@/theme';
 
@@ -18,7 +19,7 @@ import { pct } from './format';
  * What an insect meal is worth in this diet: the formula re-solved on the server over a range of the
  * meal's price, with the price at which it enters the mix and how its inclusion grows as it gets cheaper.
  */
-export function InsectValue({ formulaId, meals, currentInputs }: { formulaId: number; meals: { id: number; name: string }[]; currentInputs: () => FormulaInputsInput | null }) {
+export function InsectValue({ formulaId, meals, currentInputs, units }: { units: Units; formulaId: number; meals: { id: number; name: string }[]; currentInputs: () => FormulaInputsInput | null }) {
   const [chosen, setChosen] = useState(meals[0] ? String(meals[0].id) : '');
   const sweep = useFormulaPriceSweepMutation(formulaId);
   if (meals.length === 0) {
@@ -34,6 +35,8 @@ export function InsectValue({ formulaId, meals, currentInputs }: { formulaId: nu
   };
   const data = sweep.data;
   const steps = data?.sweep.points ?? [];
+  const p = (perKg: number | undefined, digits: number) => (perKg === undefined ? '—' : units.priceOf(perKg).toFixed(digits));
+  const per = `per ${units.mass}`;
   return (
     <Card title="Insect meal value" testID="insect-value">
       <ChoiceChips label="Insect meal" value={chosen} onChange={(v) => { setChosen(v); sweep.reset(); }} options={meals.map((m) => ({ value: String(m.id), label: m.name.length > 34 ? `${m.name.slice(0, 33)}…` : m.name }))} testID="insect-choice" />
@@ -44,13 +47,13 @@ export function InsectValue({ formulaId, meals, currentInputs }: { formulaId: nu
         <View style={styles.result} testID="insect-value-result">
           <AppText testID="insect-enters">
             {data.sweep.entersAtPrice === null
-              ? `${data.ingredientName} does not enter this mix at any price from ${steps[0]?.pricePerKg.toFixed(2)} to ${steps[steps.length - 1]?.pricePerKg.toFixed(2)} per kg (or a minimum keeps it in at every price).`
-              : `${data.ingredientName} enters the mix at ${data.sweep.entersAtPrice.toFixed(3)} per kg or less; today’s price is ${data.currentPricePerKg.toFixed(3)} per kg.`}
+              ? `In ${units.currency}: ${data.ingredientName} does not enter this mix at any price from ${p(steps[0]?.pricePerKg, 3)} to ${p(steps[steps.length - 1]?.pricePerKg, 3)} ${per} (or a minimum keeps it in at every price).`
+              : `In ${units.currency}: ${data.ingredientName} enters the mix at ${p(data.sweep.entersAtPrice, 3)} ${per} or less; today’s price is ${p(data.currentPricePerKg, 3)} ${per}.`}
           </AppText>
-          <PriceSweepChart data={data} />
+          <PriceSweepChart data={data} units={units} />
           {data.sweep.breakpoints.length ? (
             <AppText variant="small" muted>
-              Its inclusion changes at {[...new Set(data.sweep.breakpoints.map((b) => b.toFixed(3)))].join(', ')} per kg. At the lowest price it makes {pct(steps[0]?.percent ?? 0, 1)} % of the batch.
+              Its inclusion changes at {[...new Set(data.sweep.breakpoints.map((b) => p(b, 3)))].join(', ')} {units.currency} {per}. At the lowest price it makes {pct(steps[0]?.percent ?? 0, 1)} % of the batch.
             </AppText>
           ) : null}
         </View>

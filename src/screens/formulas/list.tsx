@@ -8,6 +8,7 @@ import { ErrorState } from '@/components/error-state';
 import { Screen } from '@/components/screen';
 import { Button } from '@/components/ui/button';
 import { AppText, Figure } from '@/components/ui/text';
+import { useUnits } from '@/lib/measures-format';
 import type { FormulaSummary } from '@/shared/schemas/formulas';
 import { colors, radius, space } from '@/theme';
 
@@ -46,6 +47,7 @@ export function FormulaList() {
 
 function FormulaRow({ formula, onOpen }: { formula: FormulaSummary; onOpen: () => void }) {
   const v = formula.latestVersion;
+  const units = useUnits();
   return (
     <Pressable onPress={onOpen} role="link" style={styles.row} testID={`formula-${formula.id}`} aria-label={`Open ${formula.name}`}>
       <View style={styles.rowMain}>
@@ -59,8 +61,8 @@ function FormulaRow({ formula, onOpen }: { formula: FormulaSummary; onOpen: () =
         </View>
       </View>
       <View style={styles.rowFigures}>
-        <Figure value={formula.batchKg.toFixed(0)} unit="kg batch" />
-        {v?.costPerTonne != null ? <Figure value={money(v.costPerTonne)} unit="per t" /> : null}
+        <Figure value={units.massOf(formula.batchKg).toFixed(0)} unit={`${units.mass} batch`} />
+        {v?.costPerTonne != null ? <Figure value={money(units.costOf(v.costPerTonne))} unit={`${units.currency} per ${units.bulk}`} /> : null}
       </View>
     </Pressable>
   );

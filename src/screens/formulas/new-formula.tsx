@@ -12,33 +12,43 @@ import { ChoiceChips } from '@/components/ui/choice-chips';
 import { TextField } from '@/components/ui/text-field';
 import { AppText } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
+import { toMetric, useUnits, type Units } from '@/lib/measures-format';
 import { colors, space } from '@/theme';
 
 import { IngredientPicker } from './ingredient-picker';
+import { maxBatch } from './inputs-form';
 
 type Values = { name: string; specificationId: string; batchKg: string; ingredientIds: number[] };
 
-const schema = yup.object({
+// The batch is typed in the organization's unit (kg or lb) and sent in kg.
+const schemaFor = (units: Units) => yup.object({
   name: yup.string().trim().required('Give the formula a name').max(160, 'At most 160 characters'),
   specificationId: yup.string().required('Choose a species and phase'),
-  batchKg: yup.number().typeError('Enter the batch size in kg').moreThan(0, 'The batch must be more than 0 kg').max(1_000_000, 'At most 1,000,000 kg').required('Enter the batch size in kg'),
+  batchKg: yup
+    .number()
+    .typeError(`Enter the batch size in ${units.mass}`)
+    .moreThan(0, `The batch must be more than 0 ${units.mass}`)
+    .max(maxBatch(units), `At most ${maxBatch(units).toLocaleString('en-US')} ${units.mass}`)
+    .required(`Enter the batch size in ${units.mass}`),
   ingredientIds: yup.array().min(1, 'Choose at least one ingredient'),
 });
 
 /** Starts a formula: a specification (species and phase) fills the bounds; the planner picks the ingredients. */
 export function NewFormulaForm({ onCancel, onCreated }: { onCancel: () => void; onCreated: (id: number) => void }) {
   const create = useFormulaCreateMutation();
+  const units = useUnits();
   const [message, setMessage] = useState<string | null>(null);
   const form = useFormik<Values>({
-    initialValues: { name: '', specificationId: '', batchKg: '1000', ingredientIds: [] },
-    validationSchema: schema,
+    // A tonne, or a short ton (2,000 lb) in US units.
+    initialValues: { name: '', specificationId: '', batchKg: units.system === 'us' ? '2000' : '1000', ingredientIds: [] },
+    validationSchema: schemaFor(units),
     onSubmit: async (values, helpers) => {
       setMessage(null);
       try {
         const created = await create.mutateAsync({
           name: values.name.trim(),
           specificationId: Number(values.specificationId),
-          batchKg: Number(values.batchKg),
+          batchKg: toMetric(Number(values.batchKg), units.massToKg),
           ingredients: values.ingredientIds.map((ingredientId) => ({ ingredientId })),
         });
         onCreated(created.id);
@@ -66,7 +76,7 @@ export function NewFormulaForm({ onCancel, onCreated }: { onCancel: () => void; 
       />
       {touched && form.errors.specificationId ? <AppText variant="small" style={styles.error}>{form.errors.specificationId}</AppText> : null}
       {specs.length === 0 && choices.isSuccess ? <AppText muted>Your library has no specifications yet: copy one in Requirements first.</AppText> : null}
-      <TextField label="Batch size" hint="kg as fed" keyboardType="decimal-pad" value={form.values.batchKg} onChangeText={form.handleChange('batchKg')} error={touched && form.errors.batchKg} testID="new-formula-batch" />
+      <TextField label="Batch size" hint={`${units.mass} as fed`} keyboardType="decimal-pad" value={form.values.batchKg} onChangeText={form.handleChange('batchKg')} error={touched && form.errors.batchKg} testID="new-formula-batch" />
       <View style={styles.picker}>
         <AppText variant="label">Ingredients from your library ({form.values.ingredientIds.length} chosen)</AppText>
         {touched && typeof form.errors.ingredientIds === 'string' ? <AppText variant="small" style={styles.error}>{form.errors.ingredientIds}</AppText> : null}

@@ -9,6 +9,7 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ChoiceChips } from '@/components/ui/choice-chips';
 import { AppText, Figure } from '@/components/ui/text';
+import type { Units } from '@/lib/measures-format';
 import type { FormulaDetail, VersionSummary } from '@/shared/schemas/formulas';
 import { colors, fonts, space } from '@/theme';
 
@@ -16,7 +17,7 @@ import { money, pct, signed, when } from './format';
 import { StatusBadge } from './status-badge';
 
 /** Kept versions: view one, approve one (nutritionists), compare two side by side. */
-export function VersionsPanel({ formula, viewing, onView }: { formula: FormulaDetail; viewing: number | null; onView: (id: number) => void }) {
+export function VersionsPanel({ formula, viewing, onView, units }: { units: Units; formula: FormulaDetail; viewing: number | null; onView: (id: number) => void }) {
   const { can } = useActiveMembership();
   const approve = useVersionApproveMutation(formula.id);
   const current = formula.versions.find((v) => v.approval === 'current');
@@ -33,7 +34,7 @@ export function VersionsPanel({ formula, viewing, onView }: { formula: FormulaDe
             {v.approval === 'superseded' ? <StatusBadge status="superseded" label={`Approved by ${v.approvedBy}, superseded by a newer approval`} /> : null}
           </View>
           <AppText variant="small" muted>Kept by {v.createdBy}, {when(v.createdAt)}{v.note ? ` · ${v.note}` : ''}</AppText>
-          {v.costPerTonne !== null ? <Figure value={money(v.costPerTonne)} unit="per tonne" /> : null}
+          {v.costPerTonne !== null ? <Figure value={money(units.costOf(v.costPerTonne))} unit={`${units.currency} per ${units.tonneWord}`} /> : null}
           <View style={styles.actions}>
             <Button label="View" tone="quiet" onPress={() => onView(v.id)} testID={`view-version-${v.number}`} />
             {can('formulas:approve') && v.status === 'optimal' && v.approval === 'not_approved' ? (
@@ -46,12 +47,13 @@ export function VersionsPanel({ formula, viewing, onView }: { formula: FormulaDe
         </View>
       ))}
       <FormMessage tone="danger" text={approve.isError ? describeError(approve.error) : null} testID="approve-error" />
-      {formula.versions.length >= 2 ? <Compare formulaId={formula.id} versions={formula.versions} /> : null}
+      {formula.versions.length >= 2 ? <Compare formulaId={formula.id} versions={formula.versions} units={units} /> : null}
     </Card>
   );
 }
 
-function Compare({ formulaId, versions }: { formulaId: number; versions: VersionSummary[] }) {
+function Compare({ formulaId, versions, units }: { formulaId: number; versions: VersionSummary[]; units: Units }) {
+  const cost = (perTonne: number | null) => (perTonne === null ? '—' : units.money(units.costOf(perTonne), 2));
   const [a, setA] = useState(String(versions[1].id));
   const [b, setB] = useState(String(versions[0].id));
   const diff = useFormulaCompareQuery(formulaId, Number(a), Number(b));
@@ -67,8 +69,8 @@ function Compare({ formulaId, versions }: { formulaId: number; versions: Version
       {d ? (
         <View style={styles.compareBody} testID="compare-result">
           <AppText>
-            Cost per tonne: A {money(d.cost.aPerTonne)}, B {money(d.cost.bPerTonne)}
-            {d.cost.diffPerTonne !== null ? `, B − A ${signed(d.cost.diffPerTonne)} per tonne` : ' (one of them has no mix)'}
+            Cost per {units.tonneWord}: A {cost(d.cost.aPerTonne)}, B {cost(d.cost.bPerTonne)}
+            {d.cost.diffPerTonne !== null ? `, B − A ${signed(units.costOf(d.cost.diffPerTonne))} ${units.currency} per ${units.tonneWord}` : ' (one of them has no mix)'}
           </AppText>
           <View style={styles.row}>
             <AppText variant="label" style={styles.name}>Ingredient</AppText>
@@ -85,7 +87,8 @@ function Compare({ formulaId, versions }: { formulaId: number; versions: Version
             </View>
           ))}
           <View style={styles.row}>
-            <AppText variant="label" style={styles.name}>Nutrient (as fed)</AppText>
+            {/* Nutrient levels are concentrations (per kg of feed): they read the same in US units. */}
+            <AppText variant="label" style={styles.name}>Nutrient (as fed, per kg of feed)</AppText>
             <AppText variant="label" style={styles.num}>A</AppText>
             <AppText variant="label" style={styles.num}>B</AppText>
             <AppText variant="label" style={styles.num}>B − A</AppText>

@@ -4,6 +4,7 @@ import { useRouter } from 'expo-router';
 import { useFormik } from 'formik';
 
 import { useFormulaChoicesQuery, useFormulaQuery, useFormulaSolveMutation, useFormulaUpdateMutation, useFormulaVersionQuery, useVersionKeepMutation } from '@/api/formulas';
+import { useOrganizationSettingsQuery } from '@/api/organization-settings';
 import { useActiveMembership } from '@/api/session';
 import { ErrorState } from '@/components/error-state';
 import { FormMessage } from '@/components/form-message';
@@ -12,13 +13,14 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { AppText } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
+import { useUnits, type Units } from '@/lib/measures-format';
 import type { FormulaDetail, FormulaSolve, IngredientChoice } from '@/shared/schemas/formulas';
 import { colors, space, WIDE_MIN_WIDTH } from '@/theme';
 
 import { when } from './format';
 import { IngredientPicker } from './ingredient-picker';
 import { InsectValue } from './insect-value';
-import { inputsFromValues, InputsForm, inputsSchema, valuesFromFormula, type InputValues } from './inputs-form';
+import { inputsFromValues, InputsForm, inputsSchemaFor, valuesFromFormula, type InputValues } from './inputs-form';
 import { ShareCard } from '@/screens/shared-result/share-card';
 
 import { ResultPanel } from './result-panel';
@@ -27,6 +29,8 @@ import { VersionsPanel } from './versions-panel';
 /** The formula workspace: inputs on the left (or first on a phone), the result and its explanations beside them. */
 export function FormulaWorkspace({ id }: { id: number }) {
   const formula = useFormulaQuery(id);
+  const settings = useOrganizationSettingsQuery();
+  const units = useUnits();
   const router = useRouter();
   if (formula.isError) {
     return (
@@ -36,7 +40,8 @@ export function FormulaWorkspace({ id }: { id: number }) {
       </Screen>
     );
   }
-  if (!formula.data) {
+  // The inputs are shown in the organization's units: wait for them (metric if they cannot be read).
+  if (!formula.data || settings.isPending) {
     return (
       <Screen title="Formula" testID="screen-formula">
         <AppText muted>Loading the formula…</AppText>
@@ -44,12 +49,12 @@ export function FormulaWorkspace({ id }: { id: number }) {
     );
   }
   // Keyed by revision: a saved change from elsewhere starts the form afresh.
-  return <Workspace key={`${formula.data.id}-${formula.data.revision}`} formula={formula.data} />;
+  return <Workspace key={`${formula.data.id}-${formula.data.revision}-${units.system}`} formula={formula.data} units={units} />;
 }
 
 type Shown = { kind: 'solve'; solve: FormulaSolve } | { kind: 'version'; versionId: number } | null;
 
-function Workspace({ formula }: { formula: FormulaDetail }) {
+function Workspace({ formula, units }: { formula: FormulaDetail; units: Units }) {
   const { width } = useWindowDimensions();
   const wide = width >= WIDE_MIN_WIDTH;
   const router = useRouter();
@@ -64,13 +69,13 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
   const choices = useFormulaChoicesQuery(formula.specification?.id, picking);
 
   const form = useFormik<InputValues>({
-    initialValues: valuesFromFormula(formula),
-    validationSchema: inputsSchema,
+    initialValues: valuesFromFormula(formula, units),
+    validationSchema: inputsSchemaFor(units),
     validateOnChange: false,
     onSubmit: async (values, helpers) => {
       setMessage(null);
       try {
-        const result = await solve.mutateAsync(inputsFromValues(values));
+        const result = await solve.mutateAsync(inputsFromValues(values, units));
         setShown({ kind: 'solve', solve: result });
       } catch (error) {
         // The inputs stay as typed; the message says what to fix.
@@ -81,7 +86,7 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
 
   const validInputs = () => {
     const errors = form.errors;
-    return Object.keys(errors).length ? null : inputsFromValues(form.values);
+    return Object.keys(errors).length ? null : inputsFromValues(form.values, units);
   };
 
   const keepVersion = async () => {
@@ -89,7 +94,7 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
     if (Object.keys(errors).length) return setMessage({ tone: 'danger', text: 'Some inputs need fixing first (marked in red).' });
     setMessage(null);
     try {
-      const v = await keep.mutateAsync({ inputs: inputsFromValues(form.values) });
+      const v = await keep.mutateAsync({ inputs: inputsFromValues(form.values, units) });
       setShown({ kind: 'version', versionId: v.id });
       setMessage({ tone: 'ok', text: `Kept as version ${v.number}.` });
     } catch (error) {
@@ -101,7 +106,7 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
     const errors = await form.validateForm();
     if (Object.keys(errors).length) return setMessage({ tone: 'danger', text: 'Some inputs need fixing first (marked in red).' });
     try {
-      await save.mutateAsync({ inputs: inputsFromValues(form.values), expectedRevision: formula.revision });
+      await save.mutateAsync({ inputs: inputsFromValues(form.values, units), expectedRevision: formula.revision });
       setMessage({ tone: 'ok', text: 'Inputs saved.' });
     } catch (error) {
       setMessage({ tone: 'danger', text: applyServerErrors(error, form) });
@@ -111,7 +116,7 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
   const togglePick = (c: IngredientChoice) => {
     const list = form.values.ingredients;
     if (list.some((r) => r.ingredientId === c.id)) form.setFieldValue('ingredients', list.filter((r) => r.ingredientId !== c.id));
-    else form.setFieldValue('ingredients', [...list, { ingredientId: c.id, name: c.name, insect: c.category === 'insect_meal', libraryPrice: c.pricePerKg, priceDate: c.priceDate, price: '', minPct: '', maxPct: '' }]);
+    else form.setFieldValue('ingredients', [...list, { ingredientId: c.id, name: c.name, insect: c.category === 'insect_meal', libraryPrice: c.pricePerKg, priceDate: c.priceDate, price: '', savedPrice: null, minPct: '', maxPct: '' }]);
   };
 
   const meals = useMemo(() => form.values.ingredients.filter((r) => r.insect).map((r) => ({ id: r.ingredientId, name: r.name })), [form.values.ingredients]);
@@ -136,14 +141,14 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
         </View>
       ) : null}
       <FormMessage tone={message?.tone ?? 'ok'} text={message?.text} testID="workspace-message" />
-      {shown?.kind === 'solve' ? <ResultPanel solve={shown.solve} heading={`Solved just now with today’s library values, not kept (${when(shown.solve.solvedAt)})`} /> : null}
+      {shown?.kind === 'solve' ? <ResultPanel units={units} solve={shown.solve} heading={`Solved just now with today’s library values, not kept (${when(shown.solve.solvedAt)})`} /> : null}
       {shown?.kind === 'version' && version.data ? (
-        <ResultPanel solve={version.data.snapshot} heading={`Version ${version.data.number}, kept by ${version.data.createdBy} ${when(version.data.createdAt)}`} />
+        <ResultPanel units={units} solve={version.data.snapshot} heading={`Version ${version.data.number}, kept by ${version.data.createdBy} ${when(version.data.createdAt)}`} />
       ) : null}
       {shown?.kind === 'version' && version.isError ? <ErrorState error={version.error} onRetry={() => version.refetch()} /> : null}
       {!shown ? <AppText muted>Press Solve to see the least-cost mix for these inputs.</AppText> : null}
-      <InsectValue formulaId={formula.id} meals={meals} currentInputs={validInputs} />
-      <VersionsPanel formula={formula} viewing={shown?.kind === 'version' ? shown.versionId : null} onView={(versionId) => setShown({ kind: 'version', versionId })} />
+      <InsectValue units={units} formulaId={formula.id} meals={meals} currentInputs={validInputs} />
+      <VersionsPanel units={units} formula={formula} viewing={shown?.kind === 'version' ? shown.versionId : null} onView={(versionId) => setShown({ kind: 'version', versionId })} />
       {/* Only a kept version can be shared: a farm must see exactly what was solved, not today's re-solve. */}
       {shown?.kind === 'version' && can('results:share') ? <ShareCard what={{ kind: 'formula_version', formulaId: formula.id, versionId: shown.versionId }} /> : null}
     </View>
@@ -160,6 +165,7 @@ function Workspace({ formula }: { formula: FormulaDetail }) {
       ) : null}
       <InputsForm
         form={form}
+        units={units}
         onRemoveIngredient={(i) => form.setFieldValue('ingredients', form.values.ingredients.filter((_, k) => k !== i))}
         onAddIngredients={() => setPicking(true)}
         footer={wide ? null : actions('-end')}

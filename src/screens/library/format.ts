@@ -1,3 +1,4 @@
+import type { Units } from '@/lib/measures-format';
 import type { NutrientUnit } from '@/shared/library-terms';
 
 /** Digits shown per unit: energy in whole kcal, percentages to two places (three below 0.1 %). */
@@ -9,6 +10,7 @@ export function formatValue(value: number | null | undefined, unit: NutrientUnit
   return value.toFixed(2);
 }
 
-export function formatPrice(value: number | null): string {
-  return value === null ? 'no price' : value.toFixed(3);
+/** A price stored per kg, shown per kg (3 decimals) or per lb (4: a per-lb price is under half the per-kg one). */
+export function formatPrice(value: number | null, units: Units): string {
+  return value === null ? 'no price' : units.priceOf(value).toFixed(units.system === 'us' ? 4 : 3);
 }

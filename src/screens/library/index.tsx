@@ -17,6 +17,8 @@ import { valueOnBasis, type CompositionBasis } from '@/shared/units';
 import { colors, radius, space, TOUCH_MIN, WIDE_MIN_WIDTH } from '@/theme';
 
 import { BasisToggle } from './basis-toggle';
+import { useUnits } from '@/lib/measures-format';
+
 import { formatPrice, formatValue } from './format';
 
 const PAGE_SIZE = 25;
@@ -51,6 +53,7 @@ export function LibraryScreen() {
   const { width } = useWindowDimensions();
   const wide = width >= WIDE_MIN_WIDTH;
   const router = useRouter();
+  const units = useUnits();
   const { can } = useActiveMembership();
   const [library, setLibrary] = useState<LibraryName>('own');
   const [category, setCategory] = useState<IngredientCategory | 'all'>('all');
@@ -81,6 +84,7 @@ export function LibraryScreen() {
           <AppText muted testID="ingredient-count">
             {list.data.total} {list.data.total === 1 ? 'ingredient' : 'ingredients'}{basis === 'dry_matter' ? ', values per kg of dry matter' : ', values per kg as fed'}
           </AppText>
+          {units.system === 'us' ? <AppText variant="caption" muted testID="per-kg-note">Nutrient and energy values stay per kg (%, g/kg, kcal/kg): they are concentrations. Prices are per lb.</AppText> : null}
           {list.data.items.length === 0 ? <EmptyLibrary own={library === 'own' && !search.trim() && category === 'all'} canWrite={can('library:write')} /> : null}
           {wide ? <IngredientTable items={list.data.items} basis={basis} /> : <IngredientCards items={list.data.items} basis={basis} />}
           {pages > 1 ? (
@@ -121,6 +125,7 @@ function Badges({ item }: { item: IngredientSummary }) {
 }
 
 function IngredientTable({ items, basis }: { items: IngredientSummary[]; basis: CompositionBasis }) {
+  const units = useUnits();
   return (
     <View style={styles.table} testID="ingredient-table" role="table">
       <View style={[styles.row, styles.headRow]} role="row">
@@ -128,7 +133,7 @@ function IngredientTable({ items, basis }: { items: IngredientSummary[]; basis: 
         {COLUMNS.map((c) => (
           <AppText key={c.id} variant="label" style={styles.numCell} role="columnheader">{c.label} <AppText variant="caption" muted>{c.id === 'dm' && basis === 'dry_matter' ? '%' : c.unit}</AppText></AppText>
         ))}
-        <AppText variant="label" style={styles.numCell} role="columnheader">Price <AppText variant="caption" muted>per kg</AppText></AppText>
+        <AppText variant="label" style={styles.numCell} role="columnheader">Price <AppText variant="caption" muted testID="price-unit">{units.currency} per {units.mass}</AppText></AppText>
       </View>
       {items.map((item) => (
         <Link key={item.id} href={`/library/${item.id}`} asChild>
@@ -141,7 +146,7 @@ function IngredientTable({ items, basis }: { items: IngredientSummary[]; basis: 
             {COLUMNS.map((c) => (
               <AppText key={c.id} style={[styles.numCell, styles.figure]}>{formatValue(shown(item, c.id, basis), c.unit)}</AppText>
             ))}
-            <AppText style={[styles.numCell, styles.figure]}>{formatPrice(item.pricePerKg)}</AppText>
+            <AppText style={[styles.numCell, styles.figure]}>{formatPrice(item.pricePerKg, units)}</AppText>
           </Pressable>
         </Link>
       ))}
@@ -150,6 +155,7 @@ function IngredientTable({ items, basis }: { items: IngredientSummary[]; basis: 
 }
 
 function IngredientCards({ items, basis }: { items: IngredientSummary[]; basis: CompositionBasis }) {
+  const units = useUnits();
   return (
     <View style={styles.cards} testID="ingredient-cards">
       {items.map((item) => (
@@ -167,7 +173,7 @@ function IngredientCards({ items, basis }: { items: IngredientSummary[]; basis: 
               ))}
               <View style={styles.cardFigure}>
                 <AppText variant="caption" muted>Price</AppText>
-                <Figure value={formatPrice(item.pricePerKg)} unit={item.pricePerKg === null ? '' : '/kg'} />
+                <Figure value={formatPrice(item.pricePerKg, units)} unit={item.pricePerKg === null ? '' : `${units.currency}/${units.mass}`} />
               </View>
             </View>
           </Pressable>

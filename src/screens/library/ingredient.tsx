@@ -22,12 +22,13 @@ import {
   ORIGIN_ANIMALS,
   VALUE_SOURCE_KIND_LABELS,
 } from '@/shared/library-terms';
+import { useUnits } from '@/lib/measures-format';
 import type { IngredientDetail, ValueSet } from '@/shared/schemas/ingredients';
 import { valueOnBasis, type CompositionBasis } from '@/shared/units';
 import { colors, radius, space, TOUCH_MIN } from '@/theme';
 
 import { BasisToggle } from './basis-toggle';
-import { formatValue } from './format';
+import { formatPrice, formatValue } from './format';
 import { LabAnalysisCard } from './lab-analysis-card';
 
 /** One ingredient: its nutrient profile by kind with the source of each value, insect details and prices. */
@@ -42,6 +43,7 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
   const router = useRouter();
   const { can } = useActiveMembership();
   const copy = useIngredientCopyMutation();
+  const units = useUnits();
   const [basis, setBasis] = useState<CompositionBasis>('as_fed');
   const setNumber = new Map(item.valueSets.map((s, i) => [s.id, i + 1]));
 
@@ -83,7 +85,7 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
         {item.prices.map((p) => (
           <View key={p.id} style={styles.line}>
             <AppText>{p.effectiveOn}</AppText>
-            <Figure value={p.pricePerKg.toFixed(3)} unit="per kg as fed" />
+            <Figure value={formatPrice(p.pricePerKg, units)} unit={`${units.currency} per ${units.mass} as fed`} />
           </View>
         ))}
       </Card>

@@ -12,8 +12,11 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/text-field';
 import { AppText } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
+import { toInput, toMetric, useUnits } from '@/lib/measures-format';
 import type { IngredientSummary } from '@/shared/schemas/ingredients';
 import { colors, space } from '@/theme';
+
+import { formatPrice } from './format';
 
 type FormValues = { effectiveOn: string; prices: Record<string, string> };
 
@@ -44,14 +47,18 @@ function PriceForm({ items }: { items: IngredientSummary[] }) {
   const router = useRouter();
   const record = usePricesRecordMutation();
   const [message, setMessage] = useState<{ tone: 'ok' | 'danger'; text: string } | null>(null);
-  const start: FormValues = { effectiveOn: new Date().toISOString().slice(0, 10), prices: Object.fromEntries(items.map((i) => [String(i.id), i.pricePerKg === null ? '' : String(i.pricePerKg)])) };
+  // Prices are typed per kg or per lb, in the organization's currency; the API stores them per kg.
+  const units = useUnits();
+  const startText = (i: IngredientSummary) => (i.pricePerKg === null ? '' : toInput(i.pricePerKg, units.priceOf));
+  const start: FormValues = { effectiveOn: new Date().toISOString().slice(0, 10), prices: Object.fromEntries(items.map((i) => [String(i.id), startText(i)])) };
 
   const submit = async (form: FormValues, helpers: FormikHelpers<FormValues>) => {
     setMessage(null);
     const changed = items.flatMap((item) => {
       const text = form.prices[String(item.id)]?.trim() ?? '';
-      if (!text) return [];
-      const price = decimal(text);
+      // An untouched field (shown rounded when converted) is not a change.
+      if (!text || text === startText(item)) return [];
+      const price = toMetric(decimal(text), units.priceToKg);
       return price === item.pricePerKg ? [] : [{ ingredientId: item.id, pricePerKg: price }];
     });
     if (changed.length === 0) return setMessage({ tone: 'danger', text: 'No price was changed: type the new prices first.' });
@@ -72,7 +79,7 @@ function PriceForm({ items }: { items: IngredientSummary[] }) {
   return (
     <Formik initialValues={start} validationSchema={schema} onSubmit={submit} validateOnChange={false}>
       {(f) => (
-        <Screen title="Update prices" lead="Type this week’s prices per kg as fed; only the ones you change are saved, all together." testID="screen-prices">
+        <Screen title="Update prices" lead={`Type this week’s prices in ${units.currency} per ${units.mass} as fed; only the ones you change are saved, all together.`} testID="screen-prices">
           <TextField label="Prices apply from" hint="YYYY-MM-DD" value={f.values.effectiveOn} onChangeText={f.handleChange('effectiveOn')} error={f.submitCount > 0 ? f.errors.effectiveOn : undefined} testID="prices-date" />
           {items.length === 0 ? <AppText>Our library has no ingredients yet: copy some from the reference tables first.</AppText> : null}
           <View style={styles.list}>
@@ -80,12 +87,12 @@ function PriceForm({ items }: { items: IngredientSummary[] }) {
               <View key={item.id} style={styles.row}>
                 <View style={styles.name}>
                   <AppText>{item.name}</AppText>
-                  <AppText variant="caption" muted>{item.priceDate ? `now ${item.pricePerKg?.toFixed(3)} since ${item.priceDate}` : 'no price yet'}</AppText>
+                  <AppText variant="caption" muted>{item.priceDate ? `now ${formatPrice(item.pricePerKg, units)} ${units.currency} per ${units.mass} since ${item.priceDate}` : 'no price yet'}</AppText>
                 </View>
                 <View style={styles.input}>
                   <TextField
                     label={`Price of ${item.name}`}
-                    hint="per kg"
+                    hint={`${units.currency} per ${units.mass}`}
                     value={f.values.prices[String(item.id)] ?? ''}
                     onChangeText={(t) => f.setFieldValue(`prices.${item.id}`, t)}
                     keyboardType="decimal-pad"

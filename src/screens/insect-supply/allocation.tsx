@@ -12,6 +12,7 @@ import { Card } from '@/components/ui/card';
 import { TextField } from '@/components/ui/text-field';
 import { AppText, Figure } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
+import { toInput, toMetric, useUnits, type Units } from '@/lib/measures-format';
 import type { SupplyAllocationOptions, SupplyAllocationResponse, SupplyPlanDetail } from '@/shared/schemas/supply';
 import { colors, radius, space, TOUCH_MIN } from '@/theme';
 
@@ -22,7 +23,7 @@ type Values = { tonnes: Record<string, string>; specs: number[]; ingredients: nu
 const schema = yup.object({
   specs: yup.array().min(1, 'Choose at least one formula to make this week.'),
   ingredients: yup.array().min(1, 'Choose the ingredients the formulas may use.'),
-  mealPrice: yup.string().test('price', 'Enter what a kg of your meal is counted at (0 or more).', (v) => {
+  mealPrice: yup.string().test('price', 'Enter what your meal is counted at per kg or lb (0 or more).', (v) => {
     const n = parseNumber(v ?? '');
     return n !== null && Number.isFinite(n) && n >= 0;
   }),
@@ -37,10 +38,15 @@ function Toggle({ on, label, detail, onPress, testID }: { on: boolean; label: st
   );
 }
 
-function initial(options: SupplyAllocationOptions, plan: SupplyPlanDetail): Values {
-  const priced = options.ingredients.filter((i) => i.category !== 'insect_meal' && i.pricePerKg !== null).map((i) => i.id);
+/** The linked meal's library price per kg, and the same shown per kg or per lb. */
+function linkedPrice(options: SupplyAllocationOptions, plan: SupplyPlanDetail, units: Units): { perKg: number; text: string } | null {
   const linked = options.ingredients.find((i) => i.id === plan.mealIngredient?.id);
-  return { tonnes: {}, specs: [], ingredients: priced, prices: {}, mealPrice: linked?.pricePerKg != null ? String(linked.pricePerKg) : '' };
+  return linked?.pricePerKg != null ? { perKg: linked.pricePerKg, text: toInput(linked.pricePerKg, units.priceOf) } : null;
+}
+
+function initial(options: SupplyAllocationOptions, plan: SupplyPlanDetail, units: Units): Values {
+  const priced = options.ingredients.filter((i) => i.category !== 'insect_meal' && i.pricePerKg !== null).map((i) => i.id);
+  return { tonnes: {}, specs: [], ingredients: priced, prices: {}, mealPrice: linkedPrice(options, plan, units)?.text ?? '' };
 }
 
 /** Where the week's meal goes: the chosen formulas solved together, with the meal and with none of it. */
@@ -49,6 +55,8 @@ export function AllocationCard({ plan }: { plan: SupplyPlanDetail }) {
   const run = useSupplyAllocateMutation(plan.id);
   const [formError, setFormError] = useState<string | null>(null);
   const [result, setResult] = useState<SupplyAllocationResponse | null>(null);
+  // Tonnages are typed in t or short tons and prices per kg or per lb; the API takes tonnes and per kg.
+  const units = useUnits();
 
   if (options.isPending) return <Card title="This week’s formulas"><AppText muted>Loading your library…</AppText></Card>;
   if (options.isError) return <ErrorState error={options.error} onRetry={() => options.refetch()} />;
@@ -61,14 +69,20 @@ export function AllocationCard({ plan }: { plan: SupplyPlanDetail }) {
       return t === null || !(t > 0);
     });
     if (missing !== undefined) {
-      helpers.setFieldError(`tonnes.${missing}`, 'Enter the tonnes to make this week (more than 0).');
+      helpers.setFieldError(`tonnes.${missing}`, `Enter the ${units.tonneWord}s to make this week (more than 0).`);
       return;
     }
+    const perKg = (text: string) => {
+      const typed = parseNumber(text);
+      return typed === null ? null : toMetric(typed, units.priceToKg);
+    };
+    // The library price untouched goes back exactly as stored, not through the rounded per-lb text.
+    const linked = linkedPrice(o, plan, units);
     try {
       const response = await run.mutateAsync({
-        formulas: v.specs.map((id) => ({ specificationId: id, tonnesPerWeek: parseNumber(v.tonnes[id])! })),
-        ingredients: v.ingredients.map((id) => ({ ingredientId: id, pricePerKg: parseNumber(v.prices[id] ?? '') })),
-        mealPricePerKg: parseNumber(v.mealPrice)!,
+        formulas: v.specs.map((id) => ({ specificationId: id, tonnesPerWeek: toMetric(parseNumber(v.tonnes[id])!, units.bulkToTonnes) })),
+        ingredients: v.ingredients.map((id) => ({ ingredientId: id, pricePerKg: perKg(v.prices[id] ?? '') })),
+        mealPricePerKg: linked && v.mealPrice.trim() === linked.text ? linked.perKg : perKg(v.mealPrice)!,
       });
       setResult(response);
     } catch (error) {
@@ -78,10 +92,10 @@ export function AllocationCard({ plan }: { plan: SupplyPlanDetail }) {
   };
 
   return (
-    <Formik initialValues={initial(o, plan)} validationSchema={schema} onSubmit={submit}>
+    <Formik initialValues={initial(o, plan, units)} validationSchema={schema} onSubmit={submit}>
       {({ values, errors, setFieldValue, handleSubmit, isSubmitting, submitCount }) => (
         <Card title="This week’s formulas" testID="supply-allocation">
-          <AppText variant="small" muted>Choose the requirement specifications to make this week with their tonnages, and the ingredients they may use. Troughline shares the {massText(plan.plan.processing.mealKg)} of meal where it saves most.</AppText>
+          <AppText variant="small" muted>Choose the requirement specifications to make this week with their tonnages, and the ingredients they may use. Troughline shares the {massText(units, plan.plan.processing.mealKg)} of meal where it saves most.</AppText>
           <AppText variant="label">Formulas to make</AppText>
           <View style={styles.list}>
             {o.specifications.map((s) => {
@@ -91,7 +105,7 @@ export function AllocationCard({ plan }: { plan: SupplyPlanDetail }) {
                   <Toggle on={on} label={s.name} detail={`${s.speciesName}${s.phaseName ? ` · ${s.phaseName}` : ''}`} onPress={() => setFieldValue('specs', on ? values.specs.filter((x) => x !== s.id) : [...values.specs, s.id])} testID={`alloc-spec-${s.id}`} />
                   {on ? (
                     <View style={styles.tonnes}>
-                      <TextField label="To make" hint="t/week" keyboardType="decimal-pad" value={values.tonnes[s.id] ?? ''} onChangeText={(t) => setFieldValue(`tonnes.${s.id}`, t)} error={(errors.tonnes as Record<string, string> | undefined)?.[s.id]} testID={`alloc-tonnes-${s.id}`} />
+                      <TextField label="To make" hint={`${units.bulk}/week`} keyboardType="decimal-pad" value={values.tonnes[s.id] ?? ''} onChangeText={(t) => setFieldValue(`tonnes.${s.id}`, t)} error={(errors.tonnes as Record<string, string> | undefined)?.[s.id]} testID={`alloc-tonnes-${s.id}`} />
                     </View>
                   ) : null}
                 </View>
@@ -99,27 +113,28 @@ export function AllocationCard({ plan }: { plan: SupplyPlanDetail }) {
             })}
           </View>
           {submitCount > 0 && typeof errors.specs === 'string' ? <FormMessage tone="danger" text={errors.specs} /> : null}
-          <AppText variant="label">Ingredients they may use (library price per kg)</AppText>
+          <AppText variant="label">Ingredients they may use (library price, {units.currency} per {units.mass})</AppText>
           <View style={styles.chips}>
             {o.ingredients.filter((i) => i.id !== plan.mealIngredient?.id).map((i) => {
               const on = values.ingredients.includes(i.id);
               return (
-                <Toggle key={i.id} on={on} label={i.name} detail={i.pricePerKg !== null ? `${num(i.pricePerKg, 3)} per kg` : 'no price: enter one'} onPress={() => setFieldValue('ingredients', on ? values.ingredients.filter((x) => x !== i.id) : [...values.ingredients, i.id])} testID={`alloc-ing-${i.id}`} />
+                <Toggle key={i.id} on={on} label={i.name} detail={i.pricePerKg !== null ? `${units.money(units.priceOf(i.pricePerKg), 4)} per ${units.mass}` : 'no price: enter one'} onPress={() => setFieldValue('ingredients', on ? values.ingredients.filter((x) => x !== i.id) : [...values.ingredients, i.id])} testID={`alloc-ing-${i.id}`} />
               );
             })}
           </View>
           {submitCount > 0 && typeof errors.ingredients === 'string' ? <FormMessage tone="danger" text={errors.ingredients} /> : null}
-          <TextField label="Your meal counted at" hint="per kg as fed" keyboardType="decimal-pad" value={values.mealPrice} onChangeText={(t) => setFieldValue('mealPrice', t)} error={submitCount > 0 ? errors.mealPrice : undefined} testID="alloc-meal-price" />
+          <TextField label="Your meal counted at" hint={`${units.currency} per ${units.mass} as fed`} keyboardType="decimal-pad" value={values.mealPrice} onChangeText={(t) => setFieldValue('mealPrice', t)} error={submitCount > 0 ? errors.mealPrice : undefined} testID="alloc-meal-price" />
           <FormMessage tone="danger" text={formError} testID="alloc-error" />
           <Button label={isSubmitting ? 'Solving…' : 'Share out the meal'} disabled={isSubmitting} onPress={() => handleSubmit()} testID="alloc-run" />
-          {result ? <AllocationResult result={result} /> : null}
+          {result ? <AllocationResult result={result} units={units} /> : null}
         </Card>
       )}
     </Formik>
   );
 }
 
-function AllocationResult({ result }: { result: SupplyAllocationResponse }) {
+function AllocationResult({ result, units }: { result: SupplyAllocationResponse; units: Units }) {
+  const perBulk = (perTonne: number) => `${units.money(units.costOf(perTonne), 2)} per ${units.bulk}`;
   const ok = result.status === 'optimal';
   return (
     <View style={styles.result} testID="alloc-result">
@@ -130,20 +145,20 @@ function AllocationResult({ result }: { result: SupplyAllocationResponse }) {
       ))}
       {ok ? (
         <View style={styles.stats}>
-          <Stat label="Meal used" value={massText(result.mealUsedKg)} testID="alloc-used" />
-          <Stat label="Left over" value={massText(result.mealLeftKg)} testID="alloc-left" />
-          <Stat label="Saving against no meal" value={result.saving !== null ? `${num(result.saving, 2)} per week` : result.statusWithoutMeal === 'infeasible' ? 'no mix without the meal' : '—'} testID="alloc-saving" />
-          <Stat label="One more tonne of meal" value={result.mealValuePerTonne !== null ? `${num(result.mealValuePerTonne, 2)} per t` : '—'} testID="alloc-value" />
+          <Stat label="Meal used" value={massText(units, result.mealUsedKg)} testID="alloc-used" />
+          <Stat label="Left over" value={massText(units, result.mealLeftKg)} testID="alloc-left" />
+          <Stat label="Saving against no meal" value={result.saving !== null ? `${units.money(result.saving, 2)} per week` : result.statusWithoutMeal === 'infeasible' ? 'no mix without the meal' : '—'} testID="alloc-saving" />
+          <Stat label={`One more ${units.tonneWord} of meal`} value={result.mealValuePerTonne !== null ? `worth ${perBulk(result.mealValuePerTonne)}` : '—'} testID="alloc-value" />
         </View>
       ) : null}
       {result.formulas.map((f) => (
         <View key={f.specificationId} style={[styles.formula, !f.mealOffered && styles.blocked]} testID={`alloc-formula-${f.specificationId}`}>
-          <AppText variant="label">{f.name} · {num(f.tonnesPerWeek, 1)} t/week</AppText>
+          <AppText variant="label">{f.name} · {num(units.bulkOf(f.tonnesPerWeek), 1)} {units.bulk}/week</AppText>
           {f.mealOffered ? (
             <View style={styles.stats}>
-              <Figure value={num(f.mealKg, 1)} unit={`kg of meal (${num(f.mealPercent, 2)} %)`} />
-              {f.costPerTonne !== null ? <Figure value={num(f.costPerTonne, 2)} unit="per t with the meal" /> : null}
-              {f.costPerTonneWithoutMeal !== null ? <Figure value={num(f.costPerTonneWithoutMeal, 2)} unit="per t without" /> : null}
+              <Figure value={num(units.massOf(f.mealKg), 1)} unit={`${units.mass} of meal (${num(f.mealPercent, 2)} %)`} />
+              {f.costPerTonne !== null ? <Figure value={num(units.costOf(f.costPerTonne), 2)} unit={`${units.currency} per ${units.bulk} with the meal`} /> : null}
+              {f.costPerTonneWithoutMeal !== null ? <Figure value={num(units.costOf(f.costPerTonneWithoutMeal), 2)} unit={`${units.currency} per ${units.bulk} without`} /> : null}
             </View>
           ) : (
             <AppText variant="small" testID={`alloc-refusal-${f.specificationId}`}>Meal not offered: {f.refusal}</AppText>

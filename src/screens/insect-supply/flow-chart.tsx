@@ -1,6 +1,7 @@
 import { View } from 'react-native';
 import Svg, { G, Line, Polygon, Rect, Text as SvgText } from 'react-native-svg';
 
+import { useUnits } from '@/lib/measures-format';
 import type { SupplyPlanResult } from '@/shared/supply/plan';
 import { SUBSTRATES } from '@/shared/supply/substrates';
 import { colors, fonts } from '@/theme';
@@ -48,27 +49,28 @@ export function SupplyFlowChart({ plan }: { plan: SupplyPlanResult }) {
   const t = plan.totals;
   const p = plan.processing;
   const half = (W - 12) / 2;
+  const units = useUnits();
   return (
-    <View testID="supply-flow-chart" accessibilityLabel={`Flow of masses per week: ${streams.length} streams, ${massText(t.substrateFreshKg)} of substrate, ${massText(t.larvaeFreshKg)} of fresh larvae, ${massText(p.mealKg)} of meal, ${massText(t.residueAsTakenOffKg)} of frass`}>
+    <View testID="supply-flow-chart" accessibilityLabel={`Flow of masses per week: ${streams.length} streams, ${massText(units, t.substrateFreshKg)} of substrate, ${massText(units, t.larvaeFreshKg)} of fresh larvae, ${massText(units, p.mealKg)} of meal, ${massText(units, t.residueAsTakenOffKg)} of frass`}>
       <Svg width="100%" height={undefined} viewBox={`0 0 ${W} ${H}`} style={{ aspectRatio: W / H, maxWidth: 640 }}>
         {streams.map((s, i) => (
-          <Box key={i} x={0} y={i * (BOX_H + 8)} w={W} title={`${s.name || SUBSTRATES[s.substrate].label} (${Math.round(s.factors.moisturePct)} % water)`} value={massText(s.fed.freshKg)} tone="stream" testID={`flow-stream-${i}`} />
+          <Box key={i} x={0} y={i * (BOX_H + 8)} w={W} title={`${s.name || SUBSTRATES[s.substrate].label} (${Math.round(s.factors.moisturePct)} % water)`} value={massText(units, s.fed.freshKg)} tone="stream" testID={`flow-stream-${i}`} />
         ))}
         <Arrow x1={W / 2} y1={streamsH - 6} x2={W / 2} y2={yRear - 2} />
-        <Box x={0} y={yRear} w={W} title="Rearing: dry matter fed" value={`${massText(t.substrateDryMatterKg)} DM · respired ${massText(t.respiredDryMatterKg)} DM`} tone="stream" />
+        <Box x={0} y={yRear} w={W} title="Rearing: dry matter fed" value={`${massText(units, t.substrateDryMatterKg)} DM · respired ${massText(units, t.respiredDryMatterKg)} DM`} tone="stream" />
         <Arrow x1={half / 2} y1={yRear + BOX_H} x2={half / 2} y2={yOut - 2} />
         <Arrow x1={half + 12 + half / 2} y1={yRear + BOX_H} x2={half + 12 + half / 2} y2={yOut - 2} />
-        <Box x={0} y={yOut} w={half} title="Fresh larvae" value={massText(t.larvaeFreshKg)} tone="larvae" testID="flow-larvae" />
-        <Box x={half + 12} y={yOut} w={half} title={`Frass (${massText(t.residueDryMatterKg)} DM)`} value={massText(t.residueAsTakenOffKg)} tone="frass" testID="flow-frass" />
-        <Arrow x1={half / 2} y1={yOut + BOX_H} x2={half / 2} y2={yMeal - 2} label={`drying −${massText(p.dryingWaterKg)} water`} />
+        <Box x={0} y={yOut} w={half} title="Fresh larvae" value={massText(units, t.larvaeFreshKg)} tone="larvae" testID="flow-larvae" />
+        <Box x={half + 12} y={yOut} w={half} title={`Frass (${massText(units, t.residueDryMatterKg)} DM)`} value={massText(units, t.residueAsTakenOffKg)} tone="frass" testID="flow-frass" />
+        <Arrow x1={half / 2} y1={yOut + BOX_H} x2={half / 2} y2={yMeal - 2} label={`drying −${massText(units, p.dryingWaterKg)} water`} />
         {p.defatted ? (
           <>
-            <Box x={0} y={yMeal} w={half} title="Pressed meal" value={massText(p.mealKg)} tone="meal" testID="flow-meal" />
+            <Box x={0} y={yMeal} w={half} title="Pressed meal" value={massText(units, p.mealKg)} tone="meal" testID="flow-meal" />
             <Arrow x1={half} y1={yMeal - 22} x2={half + 40} y2={yMeal} />
-            <Box x={half + 12} y={yMeal} w={half} title="Larvae oil" value={massText(p.oilKg)} tone="oil" testID="flow-oil" />
+            <Box x={half + 12} y={yMeal} w={half} title="Larvae oil" value={massText(units, p.oilKg)} tone="oil" testID="flow-oil" />
           </>
         ) : (
-          <Box x={0} y={yMeal} w={half} title="Dried meal" value={massText(p.mealKg)} tone="meal" testID="flow-meal" />
+          <Box x={0} y={yMeal} w={half} title="Dried meal" value={massText(units, p.mealKg)} tone="meal" testID="flow-meal" />
         )}
       </Svg>
     </View>

@@ -1,11 +1,18 @@
-/** Masses per week as a person reads them: kg below a tonne, t above. */
-export function mass(kg: number): { value: string; unit: string } {
-  if (Math.abs(kg) >= 1000) return { value: (kg / 1000).toLocaleString('en-GB', { maximumFractionDigits: 2, minimumFractionDigits: 2 }), unit: 't/week' };
-  return { value: kg.toLocaleString('en-GB', { maximumFractionDigits: 1, minimumFractionDigits: 1 }), unit: 'kg/week' };
+import type { Units } from '@/lib/measures-format';
+
+/**
+ * Masses per week as a person reads them: kg below a tonne and t above (metric), or lb below a short
+ * ton and short tons above (US). The plan is computed in kg; only the display converts.
+ */
+export function mass(units: Units, kg: number): { value: string; unit: string } {
+  const small = units.massOf(kg);
+  const bulk = units.bulkOf(kg / 1000);
+  if (Math.abs(bulk) >= 1) return { value: bulk.toLocaleString('en-GB', { maximumFractionDigits: 2, minimumFractionDigits: 2 }), unit: `${units.bulk}/week` };
+  return { value: small.toLocaleString('en-GB', { maximumFractionDigits: 1, minimumFractionDigits: 1 }), unit: `${units.mass}/week` };
 }
 
-export const massText = (kg: number) => {
-  const m = mass(kg);
+export const massText = (units: Units, kg: number) => {
+  const m = mass(units, kg);
   return `${m.value} ${m.unit}`;
 };
 

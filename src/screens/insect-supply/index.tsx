@@ -11,6 +11,7 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ChoiceChips } from '@/components/ui/choice-chips';
 import { AppText } from '@/components/ui/text';
+import { useUnits } from '@/lib/measures-format';
 import type { SupplyPlanDetail } from '@/shared/schemas/supply';
 import { space, WIDE_MIN_WIDTH } from '@/theme';
 
@@ -75,6 +76,7 @@ function PlanView({ plan, canWrite, canSolve, editing, onEdit, onNew, onDone, in
   const { width } = useWindowDimensions();
   const wide = width >= WIDE_MIN_WIDTH;
   const p = plan.plan;
+  const units = useUnits();
   const main = (
     <View style={styles.column}>
       <Card title={plan.name} testID="supply-plan">
@@ -85,7 +87,7 @@ function PlanView({ plan, canWrite, canSolve, editing, onEdit, onNew, onDone, in
           <FormMessage key={k} tone="danger" text={w} testID={`plan-warning-${k}`} />
         ))}
         <AppText variant="caption" muted>
-          Masses per week. Dry matter fed that ends neither in larvae nor in frass is respired; {Math.round(p.totals.waterLostKg).toLocaleString('en-GB')} kg of water a week leaves the rearing as vapour or leachate. Yield factors are defaults from
+          Masses per week. Dry matter fed that ends neither in larvae nor in frass is respired; {Math.round(units.massOf(p.totals.waterLostKg)).toLocaleString('en-GB')} {units.mass} of water a week leaves the rearing as vapour or leachate. Yield factors are defaults from
           rearing trials (each named in the stream editor) unless you set your own.
         </AppText>
         {canWrite && !editing ? (

@@ -4,6 +4,7 @@ import { StyleSheet, View } from 'react-native';
 import { Card } from '@/components/ui/card';
 import { TextField } from '@/components/ui/text-field';
 import { AppText, Figure } from '@/components/ui/text';
+import { useUnits } from '@/lib/measures-format';
 import { SPECIES_FAMILY_LABELS } from '@/shared/library-terms';
 import type { SupplyPlanDetail } from '@/shared/schemas/supply';
 import { soybeanAreaForProtein } from '@/shared/supply/land-use';
@@ -11,11 +12,12 @@ import { LOCAL_RULES_NOTE } from '@/shared/supply/rules';
 import { DEFAULT_SOYBEAN_CP_PCT, LARVAE_NUTRIENT_LABELS } from '@/shared/supply/substrates';
 import { colors, radius, space } from '@/theme';
 
-import { massText, num, parseNumber } from './format';
+import { mass, massText, num, parseNumber } from './format';
 
 /** The meal's estimated composition, per nutrient: % of dry matter, % as fed, and where each figure comes from. */
 export function CompositionCard({ plan }: { plan: SupplyPlanDetail }) {
   const p = plan.plan;
+  const units = useUnits();
   return (
     <Card title={p.processing.defatted ? 'Pressed meal composition' : 'Meal composition'} testID="supply-composition">
       <AppText variant="small" muted>
@@ -41,7 +43,7 @@ export function CompositionCard({ plan }: { plan: SupplyPlanDetail }) {
         ))}
       </View>
       <AppText variant="caption" muted>Meal at {num(p.processing.mealDryMatterPct, 0)} % dry matter. Crude protein of larvae is often given as N × 4.73 rather than N × 6.25; chitin nitrogen inflates N × 6.25.</AppText>
-      {p.processing.defatted ? <AppText variant="small">Oil pressed out: {massText(p.processing.oilKg)}, counted as pure fat.</AppText> : null}
+      {p.processing.defatted ? <AppText variant="small">Oil pressed out: {massText(units, p.processing.oilKg)}, counted as pure fat.</AppText> : null}
     </Card>
   );
 }
@@ -85,6 +87,10 @@ export function RulesCard({ plan }: { plan: SupplyPlanDetail }) {
 
 /** Crude protein of the meal against the soybean area that grows as much; the yield and its source can be edited. */
 export function LandUseCard({ plan }: { plan: SupplyPlanDetail }) {
+  const units = useUnits();
+  const protein = mass(units, plan.plan.processing.mealProteinKg);
+  // The soybean yield stays in t/ha and the area in ha: land area is not part of the unit settings
+  // (they cover masses and money), and the yield's published sources give it per hectare.
   const [yieldText, setYieldText] = useState(String(plan.landUse.soybeanYieldTPerHa));
   const [source, setSource] = useState(plan.landUse.yieldSource);
   const y = parseNumber(yieldText);
@@ -95,7 +101,7 @@ export function LandUseCard({ plan }: { plan: SupplyPlanDetail }) {
       <View style={styles.stats}>
         <View style={styles.stat}>
           <AppText variant="label">Crude protein in the meal</AppText>
-          <Figure value={num(plan.plan.processing.mealProteinKg, 1)} unit="kg/week" testID="land-protein" />
+          <Figure value={protein.value} unit={protein.unit} testID="land-protein" />
         </View>
         <View style={styles.stat}>
           <AppText variant="label">Soybean for the same protein</AppText>
@@ -122,6 +128,7 @@ export function LandUseCard({ plan }: { plan: SupplyPlanDetail }) {
 export function SupplyTotals({ plan }: { plan: SupplyPlanDetail }) {
   const t = plan.plan.totals;
   const p = plan.plan.processing;
+  const units = useUnits();
   const items: [string, number, string][] = [
     ['By-products in', t.substrateFreshKg, 'supply-total-in'],
     ['Fresh larvae', t.larvaeFreshKg, 'supply-total-larvae'],
@@ -132,7 +139,7 @@ export function SupplyTotals({ plan }: { plan: SupplyPlanDetail }) {
   return (
     <View style={styles.stats}>
       {items.map(([label, kg, id]) => {
-        const [value, unit] = massText(kg).split(' ');
+        const { value, unit } = mass(units, kg);
         return (
           <View key={id} style={styles.stat}>
             <AppText variant="label">{label}</AppText>

@@ -11,6 +11,7 @@ import { ChoiceChips } from '@/components/ui/choice-chips';
 import { TextField } from '@/components/ui/text-field';
 import { AppText } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
+import { toInput as inputText, toMetric, useUnits, type Units } from '@/lib/measures-format';
 import { ORIGIN_ANIMALS, type OriginAnimal } from '@/shared/library-terms';
 import type { CreateSupplyPlanInput, SupplyPlanDetail } from '@/shared/schemas/supply';
 import { DEFAULT_RESIDUAL_FAT_PCT, SUBSTRATE_KINDS, SUBSTRATES, type SubstrateKind } from '@/shared/supply/substrates';
@@ -18,7 +19,8 @@ import { colors, radius, space, TOUCH_MIN } from '@/theme';
 
 import { parseNumber } from './format';
 
-type StreamValues = { name: string; substrate: SubstrateKind; tonnesPerWeek: string; moisturePct: string; bioconversionDmPct: string; residueDmPct: string; larvaeDryMatterPct: string; animals: OriginAnimal[] };
+/** `tonnesPerWeek` is typed in t or short tons; `savedTonnes` keeps the stored tonnes behind an untouched converted text. */
+type StreamValues = { name: string; substrate: SubstrateKind; tonnesPerWeek: string; savedTonnes?: { text: string; tonnes: number }; moisturePct: string; bioconversionDmPct: string; residueDmPct: string; larvaeDryMatterPct: string; animals: OriginAnimal[] };
 type Values = { name: string; defatted: 'full_fat' | 'pressed'; residualFatPct: string; mealIngredientId: number | null; streams: StreamValues[] };
 
 const text = (n: number | null | undefined) => (n === null || n === undefined ? '' : String(n));
@@ -38,7 +40,7 @@ const schema = yup.object({
     .of(
       yup.object({
         name: yup.string().trim().required('Name the stream.').max(160, 'At most 160 characters.'),
-        tonnesPerWeek: yup.string().test('t', 'Enter the tonnes delivered per week (0 or more).', (v) => {
+        tonnesPerWeek: yup.string().test('t', 'Enter the amount delivered per week (0 or more).', (v) => {
           const n = parseNumber(v ?? '');
           return n !== null && Number.isFinite(n) && n >= 0 && n <= 100_000;
         }),
@@ -51,7 +53,7 @@ const schema = yup.object({
     .min(1, 'Add at least one stream.'),
 });
 
-function initialValues(plan: SupplyPlanDetail | null): Values {
+function initialValues(plan: SupplyPlanDetail | null, units: Units): Values {
   if (!plan) return { name: 'Weekly rearing plan', defatted: 'full_fat', residualFatPct: '', mealIngredientId: null, streams: [newStream()] };
   return {
     name: plan.name,
@@ -61,7 +63,8 @@ function initialValues(plan: SupplyPlanDetail | null): Values {
     streams: plan.streams.map((s) => ({
       name: s.name,
       substrate: s.substrate,
-      tonnesPerWeek: text(s.tonnesPerWeek),
+      tonnesPerWeek: inputText(s.tonnesPerWeek, units.bulkOf),
+      savedTonnes: { text: inputText(s.tonnesPerWeek, units.bulkOf), tonnes: s.tonnesPerWeek },
       moisturePct: text(s.moisturePct),
       bioconversionDmPct: text(s.bioconversionDmPct),
       residueDmPct: text(s.residueDmPct),
@@ -71,7 +74,13 @@ function initialValues(plan: SupplyPlanDetail | null): Values {
   };
 }
 
-function toInput(v: Values, plan: SupplyPlanDetail | null): CreateSupplyPlanInput & { expectedVersion?: number } {
+/** The API's plan: tonnes per week whatever unit they were typed in. */
+function tonnesOf(s: StreamValues, units: Units): number {
+  if (s.savedTonnes && s.tonnesPerWeek.trim() === s.savedTonnes.text) return s.savedTonnes.tonnes;
+  return toMetric(parseNumber(s.tonnesPerWeek) ?? 0, units.bulkToTonnes);
+}
+
+function toInput(v: Values, plan: SupplyPlanDetail | null, units: Units): CreateSupplyPlanInput & { expectedVersion?: number } {
   return {
     name: v.name.trim(),
     defatted: v.defatted === 'pressed',
@@ -85,7 +94,7 @@ function toInput(v: Values, plan: SupplyPlanDetail | null): CreateSupplyPlanInpu
     streams: v.streams.map((s) => ({
       name: s.name.trim(),
       substrate: s.substrate,
-      tonnesPerWeek: parseNumber(s.tonnesPerWeek) ?? 0,
+      tonnesPerWeek: tonnesOf(s, units),
       moisturePct: parseNumber(s.moisturePct),
       bioconversionDmPct: parseNumber(s.bioconversionDmPct),
       residueDmPct: parseNumber(s.residueDmPct),
@@ -120,12 +129,13 @@ export function SupplyPlanForm({ plan, insectMeals, onSaved, onCancel }: { plan:
   const create = useSupplyPlanCreateMutation();
   const update = useSupplyPlanUpdateMutation(plan?.id ?? 0);
   const [formError, setFormError] = useState<string | null>(null);
+  const units = useUnits();
   const [showFactors, setShowFactors] = useState(false);
 
   const submit = async (values: Values, helpers: FormikHelpers<Values>) => {
     setFormError(null);
     try {
-      const saved = plan ? await update.mutateAsync(toInput(values, plan)) : await create.mutateAsync(toInput(values, null));
+      const saved = plan ? await update.mutateAsync(toInput(values, plan, units)) : await create.mutateAsync(toInput(values, null, units));
       onSaved(saved.id);
     } catch (error) {
       setFormError(applyServerErrors(error, helpers));
@@ -133,7 +143,7 @@ export function SupplyPlanForm({ plan, insectMeals, onSaved, onCancel }: { plan:
   };
 
   return (
-    <Formik initialValues={initialValues(plan)} validationSchema={schema} onSubmit={submit}>
+    <Formik initialValues={initialValues(plan, units)} validationSchema={schema} onSubmit={submit}>
       {({ values, errors, touched, setFieldValue, handleSubmit, isSubmitting, submitCount }) => {
         const err = (path: string, e: unknown, t: unknown) => (submitCount > 0 || t ? (typeof e === 'string' ? e : undefined) : undefined);
         return (
@@ -165,7 +175,7 @@ export function SupplyPlanForm({ plan, insectMeals, onSaved, onCancel }: { plan:
                         />
                         <View style={styles.row}>
                           <View style={styles.cell}>
-                            <TextField label="Delivered" hint="t/week" keyboardType="decimal-pad" value={s.tonnesPerWeek} onChangeText={(v) => setFieldValue(`streams.${i}.tonnesPerWeek`, v)} error={err('', se.tonnesPerWeek, st.tonnesPerWeek)} testID={`stream-${i}-tonnes`} />
+                            <TextField label="Delivered" hint={`${units.bulk}/week`} keyboardType="decimal-pad" value={s.tonnesPerWeek} onChangeText={(v) => setFieldValue(`streams.${i}.tonnesPerWeek`, v)} error={err('', se.tonnesPerWeek, st.tonnesPerWeek)} testID={`stream-${i}-tonnes`} />
                           </View>
                           <View style={styles.cell}>
                             <TextField label="Moisture" hint={`% (default ${d.moisturePct.value})`} keyboardType="decimal-pad" placeholder={String(d.moisturePct.value)} value={s.moisturePct} onChangeText={(v) => setFieldValue(`streams.${i}.moisturePct`, v)} error={err('', se.moisturePct, st.moisturePct)} testID={`stream-${i}-moisture`} />

@@ -1,6 +1,11 @@
 import type { LabValue } from '@/shared/lab-import/types';
 
-/** A value with sensible decimals for its size; energy without decimals. */
+/**
+ * A value with sensible decimals for its size; energy without decimals. Lab values are concentrations
+ * (%, g/kg, kcal/kg): ratios of one mass to another, not masses, so they read the same whether the
+ * organization works in metric or US units and are never converted. This screen shows no amounts and
+ * no prices.
+ */
 export function formatValue(value: number, unit: string): string {
   if (unit === 'kcal/kg') return Math.round(value).toLocaleString('en-GB');
   const abs = Math.abs(value);

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 
-import { useMeasures } from '@/api/organization-settings';
+import { useMeasures, useOrganizationSettingsQuery } from '@/api/organization-settings';
 import {
   bulkUnit,
   costPerBulkUnit,
@@ -64,6 +64,14 @@ export type Units = ReturnType<typeof unitsFor>;
 export function useUnits(): Units {
   const measures = useMeasures();
   return useMemo(() => unitsFor(measures), [measures.unitSystem, measures.currency]); // eslint-disable-line react-hooks/exhaustive-deps
+}
+
+/**
+ * False until the organization's settings have arrived (or failed: then metric). A form whose fields
+ * start from converted values must wait for it, or it would start in kg and be read as lb.
+ */
+export function useUnitsReady(): boolean {
+  return !useOrganizationSettingsQuery().isPending;
 }
 
 /**

@@ -8,7 +8,7 @@ import { ErrorState } from '@/components/error-state';
 import { Screen } from '@/components/screen';
 import { Button } from '@/components/ui/button';
 import { AppText, Figure } from '@/components/ui/text';
-import { useUnits } from '@/lib/measures-format';
+import { useUnits, useUnitsReady } from '@/lib/measures-format';
 import type { FormulaSummary } from '@/shared/schemas/formulas';
 import { colors, radius, space } from '@/theme';
 
@@ -22,11 +22,13 @@ export function FormulaList() {
   const { can } = useActiveMembership();
   const router = useRouter();
   const [creating, setCreating] = useState(false);
+  // The new formula's batch starts in kg or lb: open the form once the settings are known.
+  const unitsReady = useUnitsReady();
 
   return (
     <Screen title="Formulas" lead="The cheapest mix that meets a specification at today’s prices. All amounts are as fed." testID="screen-formulas">
       {can('formulas:solve') ? (
-        creating ? (
+        creating && unitsReady ? (
           <NewFormulaForm onCancel={() => setCreating(false)} onCreated={(id) => router.push(`/?formula=${id}`)} />
         ) : (
           <View style={styles.actions}>

@@ -4,7 +4,6 @@ import { useRouter } from 'expo-router';
 import { useFormik } from 'formik';
 
 import { useFormulaChoicesQuery, useFormulaQuery, useFormulaSolveMutation, useFormulaUpdateMutation, useFormulaVersionQuery, useVersionKeepMutation } from '@/api/formulas';
-import { useOrganizationSettingsQuery } from '@/api/organization-settings';
 import { useActiveMembership } from '@/api/session';
 import { ErrorState } from '@/components/error-state';
 import { FormMessage } from '@/components/form-message';
@@ -13,7 +12,7 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { AppText } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
-import { useUnits, type Units } from '@/lib/measures-format';
+import { useUnits, useUnitsReady, type Units } from '@/lib/measures-format';
 import type { FormulaDetail, FormulaSolve, IngredientChoice } from '@/shared/schemas/formulas';
 import { colors, space, WIDE_MIN_WIDTH } from '@/theme';
 
@@ -29,7 +28,7 @@ import { VersionsPanel } from './versions-panel';
 /** The formula workspace: inputs on the left (or first on a phone), the result and its explanations beside them. */
 export function FormulaWorkspace({ id }: { id: number }) {
   const formula = useFormulaQuery(id);
-  const settings = useOrganizationSettingsQuery();
+  const unitsReady = useUnitsReady();
   const units = useUnits();
   const router = useRouter();
   if (formula.isError) {
@@ -41,7 +40,7 @@ export function FormulaWorkspace({ id }: { id: number }) {
     );
   }
   // The inputs are shown in the organization's units: wait for them (metric if they cannot be read).
-  if (!formula.data || settings.isPending) {
+  if (!formula.data || !unitsReady) {
     return (
       <Screen title="Formula" testID="screen-formula">
         <AppText muted>Loading the formula…</AppText>

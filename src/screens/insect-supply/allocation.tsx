@@ -12,7 +12,7 @@ import { Card } from '@/components/ui/card';
 import { TextField } from '@/components/ui/text-field';
 import { AppText, Figure } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
-import { toInput, toMetric, useUnits, type Units } from '@/lib/measures-format';
+import { toInput, toMetric, useUnits, useUnitsReady, type Units } from '@/lib/measures-format';
 import type { SupplyAllocationOptions, SupplyAllocationResponse, SupplyPlanDetail } from '@/shared/schemas/supply';
 import { colors, radius, space, TOUCH_MIN } from '@/theme';
 
@@ -57,8 +57,9 @@ export function AllocationCard({ plan }: { plan: SupplyPlanDetail }) {
   const [result, setResult] = useState<SupplyAllocationResponse | null>(null);
   // Tonnages are typed in t or short tons and prices per kg or per lb; the API takes tonnes and per kg.
   const units = useUnits();
+  const unitsReady = useUnitsReady();
 
-  if (options.isPending) return <Card title="This week’s formulas"><AppText muted>Loading your library…</AppText></Card>;
+  if (options.isPending || !unitsReady) return <Card title="This week’s formulas"><AppText muted>Loading your library…</AppText></Card>;
   if (options.isError) return <ErrorState error={options.error} onRetry={() => options.refetch()} />;
   const o = options.data;
 

@@ -11,7 +11,7 @@ import { ChoiceChips } from '@/components/ui/choice-chips';
 import { TextField } from '@/components/ui/text-field';
 import { AppText } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
-import { toInput as inputText, toMetric, useUnits, type Units } from '@/lib/measures-format';
+import { toInput as inputText, toMetric, useUnits, useUnitsReady, type Units } from '@/lib/measures-format';
 import { ORIGIN_ANIMALS, type OriginAnimal } from '@/shared/library-terms';
 import type { CreateSupplyPlanInput, SupplyPlanDetail } from '@/shared/schemas/supply';
 import { DEFAULT_RESIDUAL_FAT_PCT, SUBSTRATE_KINDS, SUBSTRATES, type SubstrateKind } from '@/shared/supply/substrates';
@@ -130,6 +130,7 @@ export function SupplyPlanForm({ plan, insectMeals, onSaved, onCancel }: { plan:
   const update = useSupplyPlanUpdateMutation(plan?.id ?? 0);
   const [formError, setFormError] = useState<string | null>(null);
   const units = useUnits();
+  const unitsReady = useUnitsReady();
   const [showFactors, setShowFactors] = useState(false);
 
   const submit = async (values: Values, helpers: FormikHelpers<Values>) => {
@@ -142,6 +143,8 @@ export function SupplyPlanForm({ plan, insectMeals, onSaved, onCancel }: { plan:
     }
   };
 
+  // The tonnages start converted to the organization's unit: wait for its settings.
+  if (!unitsReady) return <AppText muted>Loading…</AppText>;
   return (
     <Formik initialValues={initialValues(plan, units)} validationSchema={schema} onSubmit={submit}>
       {({ values, errors, touched, setFieldValue, handleSubmit, isSubmitting, submitCount }) => {

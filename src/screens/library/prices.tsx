@@ -12,7 +12,7 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/text-field';
 import { AppText } from '@/components/ui/text';
 import { applyServerErrors } from '@/lib/form-errors';
-import { toInput, toMetric, useUnits } from '@/lib/measures-format';
+import { toInput, toMetric, useUnits, useUnitsReady } from '@/lib/measures-format';
 import type { IngredientSummary } from '@/shared/schemas/ingredients';
 import { colors, space } from '@/theme';
 
@@ -38,8 +38,9 @@ const schema = yup.object({
 /** The weekly price update: every ingredient of our library on one page; only changed prices are saved, all at once. */
 export function PriceUpdateScreen() {
   const list = useIngredientsQuery({ library: 'own', pageSize: 200 });
+  const unitsReady = useUnitsReady();
   if (list.isError) return <Screen title="Update prices"><ErrorState error={list.error} onRetry={() => list.refetch()} /></Screen>;
-  if (!list.data) return <Screen title="Update prices"><AppText muted>Loading…</AppText></Screen>;
+  if (!list.data || !unitsReady) return <Screen title="Update prices"><AppText muted>Loading…</AppText></Screen>;
   return <PriceForm items={list.data.items} />;
 }
 

@@ -90,6 +90,7 @@ export const DEMO_FORMULAS: DemoFormula[] = [
       { code: 'l-threonine' },
       { code: 'l-tryptophan' },
       { code: 'bsf-defatted' },
+      { code: 'soybean-oil', maxPct: 3 },
     ],
     note: 'Grower diet for the finishing barns.',
   },

@@ -118,18 +118,25 @@ function SpecificationBody({ spec, nutrients }: { spec: SpecificationDetail; nut
 }
 
 type BoundRow = { nutrientId: string; min: string; max: string; note: string | null };
+type RatioRow = { min: string; max: string };
+type CapRow = { minPct: string; maxPct: string };
+type BoundsFormValues = { bounds: BoundRow[]; ratios: RatioRow[]; caps: CapRow[] };
+
+const optionalNumber = (message = 'Enter a number of 0 or more, or leave it empty.') =>
+  yup.string().test('n', message, (t) => !t || (Number.isFinite(Number(t.replace(',', '.'))) && Number(t.replace(',', '.')) >= 0));
+const notBelow = (minField: string) =>
+  optionalNumber().test('order', 'The maximum must not be below the minimum.', function order(t) {
+    const min = this.parent[minField] as string;
+    return !t || !min || Number(t.replace(',', '.')) >= Number(min.replace(',', '.'));
+  });
 
 const boundsSchema = yup.object({
-  bounds: yup.array().of(
+  bounds: yup.array().of(yup.object({ min: optionalNumber(), max: notBelow('min') })),
+  ratios: yup.array().of(yup.object({ min: optionalNumber(), max: notBelow('min') })),
+  caps: yup.array().of(
     yup.object({
-      min: yup.string().test('n', 'Enter a number of 0 or more, or leave it empty.', (t) => !t || (Number.isFinite(Number(t.replace(',', '.'))) && Number(t.replace(',', '.')) >= 0)),
-      max: yup
-        .string()
-        .test('n', 'Enter a number of 0 or more, or leave it empty.', (t) => !t || (Number.isFinite(Number(t.replace(',', '.'))) && Number(t.replace(',', '.')) >= 0))
-        .test('order', 'The maximum must not be below the minimum.', function order(t) {
-          const min = this.parent.min as string;
-          return !t || !min || Number(t.replace(',', '.')) >= Number(min.replace(',', '.'));
-        }),
+      minPct: optionalNumber().test('pct', 'At most 100 %.', (t) => !t || Number(t.replace(',', '.')) <= 100),
+      maxPct: notBelow('minPct').test('pct', 'At most 100 %.', (t) => !t || Number(t.replace(',', '.')) <= 100),
     }),
   ),
 });
@@ -137,10 +144,16 @@ const boundsSchema = yup.object({
 function BoundsForm({ spec, name, nutrients, onDone }: { spec: SpecificationDetail; name: (id: string) => string; nutrients: Map<string, Nutrient>; onDone: () => void }) {
   const update = useSpecificationUpdateMutation(spec.id);
   const [formError, setFormError] = useState<string | null>(null);
-  const start = { bounds: spec.bounds.map((b): BoundRow => ({ nutrientId: b.nutrientId, min: b.min === null ? '' : String(b.min), max: b.max === null ? '' : String(b.max), note: b.note })) };
+  const text = (v: number | null) => (v === null ? '' : String(v));
+  const start: BoundsFormValues = {
+    bounds: spec.bounds.map((b): BoundRow => ({ nutrientId: b.nutrientId, min: text(b.min), max: text(b.max), note: b.note })),
+    ratios: spec.ratios.map((r): RatioRow => ({ min: text(r.min), max: text(r.max) })),
+    caps: spec.caps.map((c): CapRow => ({ minPct: text(c.minPct), maxPct: text(c.maxPct) })),
+  };
   const toNumber = (t: string) => (t.trim() ? Number(t.replace(',', '.')) : null);
+  const [adding, setAdding] = useState('');
 
-  const submit = async (form: typeof start, helpers: FormikHelpers<typeof start>) => {
+  const submit = async (form: BoundsFormValues, helpers: FormikHelpers<BoundsFormValues>) => {
     setFormError(null);
     try {
       await update.mutateAsync({
@@ -151,8 +164,13 @@ function BoundsForm({ spec, name, nutrients, onDone }: { spec: SpecificationDeta
         notes: spec.notes,
         feedIntakeGPerDay: spec.feedIntakeGPerDay,
         bounds: form.bounds.filter((b) => b.min.trim() || b.max.trim()).map((b) => ({ nutrientId: b.nutrientId, min: toNumber(b.min), max: toNumber(b.max), note: b.note })),
-        ratios: spec.ratios.map((r) => ({ numeratorId: r.numeratorId, denominatorId: r.denominatorId, min: r.min, max: r.max, note: r.note })),
-        caps: spec.caps.map((c) => ({ scope: c.scope, ingredientId: c.ingredientId, category: c.category, insectSpecies: c.insectSpecies, minPct: c.minPct, maxPct: c.maxPct, soft: c.soft, source: c.source, note: c.note })),
+        // A ratio or cap emptied on both sides is dropped, like a nutrient bound.
+        ratios: spec.ratios
+          .map((r, i) => ({ numeratorId: r.numeratorId, denominatorId: r.denominatorId, min: toNumber(form.ratios[i].min), max: toNumber(form.ratios[i].max), note: r.note }))
+          .filter((r) => r.min !== null || r.max !== null),
+        caps: spec.caps
+          .map((c, i) => ({ scope: c.scope, ingredientId: c.ingredientId, category: c.category, insectSpecies: c.insectSpecies, minPct: toNumber(form.caps[i].minPct), maxPct: toNumber(form.caps[i].maxPct), soft: c.soft, source: c.source, note: c.note }))
+          .filter((c) => c.minPct !== null || c.maxPct !== null),
         expectedVersion: spec.version,
       });
       onDone();
@@ -178,6 +196,37 @@ function BoundsForm({ spec, name, nutrients, onDone }: { spec: SpecificationDeta
               </View>
             );
           })}
+          <AddBound
+            search={adding}
+            onSearch={setAdding}
+            candidates={[...nutrients.values()].filter((n) => n.families.includes(spec.species.family) && !f.values.bounds.some((b) => b.nutrientId === n.id))}
+            onAdd={(n) => {
+              f.setFieldValue('bounds', [...f.values.bounds, { nutrientId: n.id, min: '', max: '', note: null }]);
+              setAdding('');
+            }}
+          />
+          {spec.ratios.length ? <AppText variant="label">Ratios</AppText> : null}
+          {f.values.ratios.map((r, i) => {
+            const errors = (f.errors.ratios as { min?: string; max?: string }[] | undefined)?.[i];
+            return (
+              <View key={`ratio-${i}`} style={styles.formRow}>
+                <AppText style={styles.formName}>{name(spec.ratios[i].numeratorId)} : {name(spec.ratios[i].denominatorId)}</AppText>
+                <View style={styles.formField}><TextField label="Min" hint="ratio" value={r.min} onChangeText={f.handleChange(`ratios[${i}].min`)} error={f.submitCount > 0 ? errors?.min : undefined} inputMode="decimal" testID={`ratio-min-${i}`} /></View>
+                <View style={styles.formField}><TextField label="Max" hint="ratio" value={r.max} onChangeText={f.handleChange(`ratios[${i}].max`)} error={f.submitCount > 0 ? errors?.max : undefined} inputMode="decimal" testID={`ratio-max-${i}`} /></View>
+              </View>
+            );
+          })}
+          {spec.caps.length ? <AppText variant="label">Inclusion caps (tested levels, not legal limits)</AppText> : null}
+          {f.values.caps.map((c, i) => {
+            const errors = (f.errors.caps as { minPct?: string; maxPct?: string }[] | undefined)?.[i];
+            return (
+              <View key={`cap-${i}`} style={styles.formRow}>
+                <AppText style={styles.formName}>{capTarget(spec.caps[i])}</AppText>
+                <View style={styles.formField}><TextField label="At least" hint="% of feed" value={c.minPct} onChangeText={f.handleChange(`caps[${i}].minPct`)} error={f.submitCount > 0 ? errors?.minPct : undefined} inputMode="decimal" testID={`cap-min-${i}`} /></View>
+                <View style={styles.formField}><TextField label="At most" hint="% of feed" value={c.maxPct} onChangeText={f.handleChange(`caps[${i}].maxPct`)} error={f.submitCount > 0 ? errors?.maxPct : undefined} inputMode="decimal" testID={`cap-max-${i}`} /></View>
+              </View>
+            );
+          })}
           <View style={styles.actions}>
             <Button label={f.isSubmitting ? 'Saving…' : 'Save bounds'} disabled={f.isSubmitting} onPress={() => f.handleSubmit()} testID="spec-save" />
             <Button label="Cancel" tone="quiet" onPress={onDone} testID="spec-cancel" />
@@ -188,7 +237,25 @@ function BoundsForm({ spec, name, nutrients, onDone }: { spec: SpecificationDeta
   );
 }
 
+/** Adds a bound on a nutrient the specification does not bound yet (only nutrients used for this species). */
+function AddBound({ search, onSearch, candidates, onAdd }: { search: string; onSearch: (s: string) => void; candidates: Nutrient[]; onAdd: (n: Nutrient) => void }) {
+  const term = search.trim().toLowerCase();
+  const matches = term ? candidates.filter((n) => n.name.toLowerCase().includes(term) || n.id.includes(term)).slice(0, 8) : [];
+  return (
+    <View style={styles.add} testID="spec-add-bound">
+      <TextField label="Bound another nutrient" hint="search by name" value={search} onChangeText={onSearch} placeholder="e.g. linoleic, sodium" testID="spec-add-search" />
+      {term && matches.length === 0 ? <AppText variant="small" muted>No nutrient of this species matches “{search.trim()}”, or it is already bounded.</AppText> : null}
+      <View style={styles.actions}>
+        {matches.map((n) => (
+          <Button key={n.id} label={`${n.name} (${n.unit})`} tone="quiet" onPress={() => onAdd(n)} testID={`spec-add-${n.id}`} />
+        ))}
+      </View>
+    </View>
+  );
+}
+
 const styles = StyleSheet.create({
+  add: { gap: space.sm, borderTopWidth: 1, borderTopColor: colors.rule, paddingTop: space.sm },
   actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   row: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: TOUCH_MIN - 8, borderTopWidth: 1, borderTopColor: colors.rule, paddingVertical: space.xs },
   head: { borderTopWidth: 0 },

@@ -119,8 +119,9 @@ describe('US units and currency in the browser', () => {
     close(request.items[0].pricePerKg, ONE_PER_LB_IN_PER_KG, 1e-11, '1.00 USD/lb sent per kg');
     assert.match(await visible(page, 'prices-message').innerText(), /Saved 1 price/);
     const stored = (await api.call('GET', `/api/ingredients/${ids.maize}`)).body as { pricePerKg: number };
-    // The price column keeps four decimals: 2.20462262... per kg is stored as 2.2046.
-    assert.equal(stored.pricePerKg, 2.2046);
+    // Prices keep ten decimals per kg, so the typed 1.00 per lb comes back as 1.00 per lb.
+    close(stored.pricePerKg, ONE_PER_LB_IN_PER_KG, 1e-10, 'stored per kg');
+    close(stored.pricePerKg * 0.45359237, 1, 1e-10, 'read back per lb');
     await page.screenshot({ path: join(TEST_OUTPUT, 'us-units-prices.png'), fullPage: true });
 
     // Insect supply: 2 t a week of brewery grains = 2,000 / 907.18474 = 2.2046 short tons.

@@ -9,7 +9,7 @@ import { and, eq, inArray, isNull } from 'drizzle-orm';
 import type { FormulaIngredientInput } from '../../../src/shared/schemas/formulas';
 import type { Db } from '../client';
 import { approveVersion, createFormula, keepVersion } from '../queries/formulas';
-import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, memberships, organizations, specifications, users } from '../schema';
+import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, memberships, organizations, priceColumn, specifications, users } from '../schema';
 
 const MILL = 'Tamsby Cooperative Feed Mill';
 const DEMO_MEAL_CODE = 'demo:orrin-hollow-partially-defatted';
@@ -116,7 +116,7 @@ async function addDemoMeal(tx: Db, organizationId: number): Promise<number> {
       substrate: 'Brewery spent grains and vegetable waste',
       substrateOrigin: 'plant',
       substrateAnimals: [],
-      pricePerKg: DEMO_MEAL.pricePerKg.toFixed(4),
+      pricePerKg: priceColumn(DEMO_MEAL.pricePerKg),
       priceDate: DEMO_MEAL.priceDate,
     })
     .$returningId();
@@ -125,7 +125,7 @@ async function addDemoMeal(tx: Db, organizationId: number): Promise<number> {
     .values({ ingredientId: id, sourceKind: 'lab', sourceName: DEMO_MEAL.lab, confidence: 'verified', analysedOn: '2026-03-04', dryMatterPct: DEMO_MEAL.dm })
     .$returningId();
   await tx.insert(ingredientNutrientValues).values(Object.entries(DEMO_MEAL.values).map(([nutrientId, value]) => ({ ingredientId: id, nutrientId, valueSetId: setId, value })));
-  await tx.insert(ingredientPrices).values({ ingredientId: id, pricePerKg: DEMO_MEAL.pricePerKg.toFixed(4), effectiveOn: DEMO_MEAL.priceDate });
+  await tx.insert(ingredientPrices).values({ ingredientId: id, pricePerKg: priceColumn(DEMO_MEAL.pricePerKg), effectiveOn: DEMO_MEAL.priceDate });
   return id;
 }
 

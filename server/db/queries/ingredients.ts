@@ -18,7 +18,7 @@ import { dryMatterToAsFed } from '../../../src/shared/units';
 import { badRequest, notFound } from '../../http/errors';
 import type { Db } from '../client';
 import { copyIngredientsToOrganization } from '../reference-data/seed-library';
-import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, species, type IngredientRow } from '../schema';
+import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, species, priceColumn, type IngredientRow } from '../schema';
 import { checkNutrientValues, likePattern, readOnlyReference, toNumber, today, versionConflict } from './library-shared';
 
 type CreateInput = z.output<typeof createIngredientInput>;
@@ -162,11 +162,11 @@ export async function createIngredient(db: Db, organizationId: number, userId: s
     const priceDate = price === null ? null : (input.priceDate ?? today());
     const [{ id }] = await t
       .insert(ingredients)
-      .values({ organizationId, name: input.name, category: input.category, notes: input.notes ?? null, ...insectColumns(input), pricePerKg: price === null ? null : price.toFixed(4), priceDate })
+      .values({ organizationId, name: input.name, category: input.category, notes: input.notes ?? null, ...insectColumns(input), pricePerKg: price === null ? null : priceColumn(price), priceDate })
       .$returningId();
     const values = Object.fromEntries(Object.entries(input.values).filter((e): e is [string, number] => e[1] !== null));
     if (input.source) await insertValueSet(t, id, input.source, values);
-    if (price !== null && priceDate) await t.insert(ingredientPrices).values({ ingredientId: id, pricePerKg: price.toFixed(4), effectiveOn: priceDate, recordedByUserId: userId });
+    if (price !== null && priceDate) await t.insert(ingredientPrices).values({ ingredientId: id, pricePerKg: priceColumn(price), effectiveOn: priceDate, recordedByUserId: userId });
     return id;
   });
 }

@@ -6,7 +6,7 @@ import type { PricePoint } from '../../../src/shared/schemas/ingredients';
 import type { recordPricesInput, RecordPricesResult } from '../../../src/shared/schemas/prices';
 import { badRequest, notFound } from '../../http/errors';
 import type { Db } from '../client';
-import { ingredientPrices, ingredients } from '../schema';
+import { ingredientPrices, ingredients, priceColumn } from '../schema';
 import { findVisibleIngredient } from './ingredients';
 
 /**
@@ -22,11 +22,11 @@ export async function recordPrices(db: Db, organizationId: number, userId: strin
     const found = new Map(own.map((r) => [r.id, r.priceDate]));
     const missing = ids.filter((id) => !found.has(id));
     if (missing.length) throw notFound('ingredient in your library', missing.join(', '));
-    await tx.insert(ingredientPrices).values(input.items.map((i) => ({ ingredientId: i.ingredientId, pricePerKg: i.pricePerKg.toFixed(4), effectiveOn: input.effectiveOn, recordedByUserId: userId })));
+    await tx.insert(ingredientPrices).values(input.items.map((i) => ({ ingredientId: i.ingredientId, pricePerKg: priceColumn(i.pricePerKg), effectiveOn: input.effectiveOn, recordedByUserId: userId })));
     for (const item of input.items) {
       const current = found.get(item.ingredientId);
       if (!current || current <= input.effectiveOn) {
-        await tx.update(ingredients).set({ pricePerKg: item.pricePerKg.toFixed(4), priceDate: input.effectiveOn }).where(eq(ingredients.id, item.ingredientId));
+        await tx.update(ingredients).set({ pricePerKg: priceColumn(item.pricePerKg), priceDate: input.effectiveOn }).where(eq(ingredients.id, item.ingredientId));
       }
     }
   });

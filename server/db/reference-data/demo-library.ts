@@ -6,7 +6,7 @@
 import { eq, inArray } from 'drizzle-orm';
 
 import type { Db } from '../client';
-import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, organizations } from '../schema';
+import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, organizations, priceColumn } from '../schema';
 import { copyIngredientsToOrganization, copySpecificationToOrganization, referenceSpecificationIds } from './seed-library';
 
 /** Invented prices per kg as fed, three weekly quotes (oldest first), by reference code. */
@@ -49,8 +49,8 @@ async function seedPrices(tx: Db, copies: Map<number, number>) {
     const quotes = ref.code ? DEMO_PRICES[ref.code] : undefined;
     const ownId = copies.get(ref.id);
     if (!quotes || !ownId) continue;
-    await tx.insert(ingredientPrices).values(quotes.map((price, i) => ({ ingredientId: ownId, pricePerKg: price.toFixed(4), effectiveOn: PRICE_DATES[i] })));
-    await tx.update(ingredients).set({ pricePerKg: quotes[2].toFixed(4), priceDate: PRICE_DATES[2] }).where(eq(ingredients.id, ownId));
+    await tx.insert(ingredientPrices).values(quotes.map((price, i) => ({ ingredientId: ownId, pricePerKg: priceColumn(price), effectiveOn: PRICE_DATES[i] })));
+    await tx.update(ingredients).set({ pricePerKg: priceColumn(quotes[2]), priceDate: PRICE_DATES[2] }).where(eq(ingredients.id, ownId));
   }
 }
 
@@ -72,7 +72,7 @@ async function addOwnInsectMeal(
       substrate: meal.substrate,
       substrateOrigin: meal.origin,
       substrateAnimals: meal.animals,
-      pricePerKg: meal.price.toFixed(4),
+      pricePerKg: priceColumn(meal.price),
       priceDate: PRICE_DATES[2],
     })
     .$returningId();
@@ -81,7 +81,7 @@ async function addOwnInsectMeal(
     .values({ ingredientId: id, sourceKind: 'lab', sourceName: meal.lab, confidence: 'verified', analysedOn: '2026-02-20', dryMatterPct: meal.dm })
     .$returningId();
   await tx.insert(ingredientNutrientValues).values(Object.entries({ dm: meal.dm, ...meal.values }).map(([nutrientId, value]) => ({ ingredientId: id, nutrientId, valueSetId: setId, value })));
-  await tx.insert(ingredientPrices).values({ ingredientId: id, pricePerKg: meal.price.toFixed(4), effectiveOn: PRICE_DATES[2] });
+  await tx.insert(ingredientPrices).values({ ingredientId: id, pricePerKg: priceColumn(meal.price), effectiveOn: PRICE_DATES[2] });
 }
 
 export async function seedDemoLibraries(tx: Db): Promise<void> {

@@ -1,5 +1,14 @@
 import { date, decimal, double, index, int, json, mysqlEnum, mysqlTable, primaryKey, text, timestamp, varchar } from 'drizzle-orm/mysql-core';
 
+/**
+ * Decimal places kept for prices per kg. Ten, so a price typed per lb (or any other unit) converts to per kg and back
+ * without a visible change: 1.00 per lb is 2.2046226218 per kg.
+ */
+export const PRICE_SCALE = 10;
+
+/** A price per kg as the decimal column takes it. */
+export const priceColumn = (pricePerKg: number): string => pricePerKg.toFixed(PRICE_SCALE);
+
 import {
   AMINO_ACID_BASES,
   CONFIDENCE_LEVELS,
@@ -56,7 +65,7 @@ export const ingredients = mysqlTable(
     substrateOrigin: mysqlEnum(SUBSTRATE_ORIGINS),
     substrateAnimals: json().$type<OriginAnimal[]>(),
     /** Current price per kg as fed, and the day it was set; the history is in ingredient_prices. */
-    pricePerKg: decimal({ precision: 12, scale: 4 }),
+    pricePerKg: decimal({ precision: 20, scale: PRICE_SCALE }),
     priceDate: date({ mode: 'string' }),
     version: int().notNull().default(1),
     createdAt: timestamp().notNull().defaultNow(),
@@ -102,7 +111,7 @@ export const ingredientPrices = mysqlTable(
   {
     id: int().autoincrement().primaryKey(),
     ingredientId: int().notNull().references(() => ingredients.id, { onDelete: 'cascade' }),
-    pricePerKg: decimal({ precision: 12, scale: 4 }).notNull(),
+    pricePerKg: decimal({ precision: 20, scale: PRICE_SCALE }).notNull(),
     effectiveOn: date({ mode: 'string' }).notNull(),
     recordedByUserId: varchar({ length: 40 }).references(() => users.id, { onDelete: 'set null' }),
     recordedAt: timestamp().notNull().defaultNow(),

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm';
 import type { Db } from './client';
 import { seedDemoLibraries } from './reference-data/demo-library';
 import { seedReferenceLibrary } from './reference-data/seed-library';
+import { seedDemoShares } from './demo/shares';
 import { seedDemoAccounts } from './demo/accounts';
 import { seedDemoSupplyPlans } from './demo/supply';
 import { seedDemoFormulas } from './demo/formulas';
@@ -30,6 +31,7 @@ export const DEMO_SEED_STEPS: SeedStep[] = [
   { name: 'demo-libraries-v1', apply: seedDemoLibraries },
   { name: 'demo-supply-plans-v1', apply: seedDemoSupplyPlans },
   { name: 'demo-formulas-v1', apply: seedDemoFormulas },
+  { name: 'demo-shares-v1', apply: seedDemoShares },
 ];
 
 /** Applies the seed steps that have not run yet; returns the names applied. */

@@ -34,3 +34,33 @@ describe('the Formulas section by role', () => {
     await page.close();
   });
 });
+
+describe('the demo farm member', () => {
+  let t: TestApp;
+  let browser: Browser;
+
+  before(async () => {
+    t = await startTestApp('e2e_demo_farm', { webDist: WEB_DIST });
+    const { seedDemoData } = await import('../../server/db/seed');
+    await seedDemoData(t.database.db);
+    browser = await launchBrowser();
+  });
+  after(async () => {
+    await browser?.close();
+    await t?.close();
+  });
+
+  test('finds the starter formula the advisor shared with the farm and opens it read-only', async () => {
+    const { DEMO_FARM_WORKER } = await import('../../server/db/demo/shares');
+    const { DEMO_PASSWORD } = await import('../../server/db/demo/accounts');
+    const page = await browser.newPage({ viewport: { width: 360, height: 740 } });
+    await signInThroughForm(page, t.server.baseUrl, DEMO_FARM_WORKER.email, DEMO_PASSWORD);
+    const share = page.locator('[data-testid^="received-share-"]:visible').first();
+    await share.waitFor();
+    assert.match(await share.innerText(), /Broiler starter/);
+    await share.click();
+    await visible(page, 'screen-shared-result').waitFor();
+    await visible(page, 'caution-banner').waitFor();
+    await page.close();
+  });
+});

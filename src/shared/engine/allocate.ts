@@ -25,7 +25,7 @@ import { fieldErrors, fmt } from './format';
 import { buildFormulaModel, type FormulaModel } from './formula-model';
 import { DEFAULT_TOLERANCE } from './formulate';
 import { maxScaledViolation, type LinearProgram, type LpOutcome, type LpSolver } from './lp-types';
-import { reportMix } from './report';
+import { reportMix, solvedFormulaFields } from './report';
 import { simplexJs } from './simplex-js';
 
 /**
@@ -191,14 +191,7 @@ function reportAllocation(
     return {
       id: spec.id,
       ...(spec.name ? { name: spec.name } : {}),
-      batchKg: B,
-      costPerKg: rep.costPerKg,
-      costPerTonne: rep.costPerKg * 1000,
-      costPerBatch: rep.costPerKg * B,
-      mix: rep.mix,
-      nutrients: rep.nutrients,
-      ratios: rep.ratios,
-      groups: rep.groups,
+      ...solvedFormulaFields(rep, B),
     };
   });
   const stocks: StockReport[] = am.stocks.map((s) => {

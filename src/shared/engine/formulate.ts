@@ -13,7 +13,7 @@ import { diagnoseFormula } from './diagnose';
 import { fieldErrors } from './format';
 import { buildFormulaModel, type FormulaModel } from './formula-model';
 import { maxScaledViolation, type LpOutcome, type LpSolver } from './lp-types';
-import { reportMix } from './report';
+import { reportMix, solvedFormulaFields } from './report';
 import { simplexJs } from './simplex-js';
 
 /** Default accepted violation of any bound, relative to the largest coefficient of its row. */
@@ -122,14 +122,7 @@ export function solveModel(model: FormulaModel, options: EngineOptions = {}): Fo
     status: 'optimal',
     ...(problem.name ? { name: problem.name } : {}),
     ...(problem.currency ? { currency: problem.currency } : {}),
-    batchKg: B,
-    costPerKg: rep.costPerKg,
-    costPerTonne: rep.costPerKg * 1000,
-    costPerBatch: rep.costPerKg * B,
-    mix: rep.mix,
-    nutrients: rep.nutrients,
-    ratios: rep.ratios,
-    groups: rep.groups,
+    ...solvedFormulaFields(rep, B),
     inclusions: rep.inclusions,
     ranging,
     uniqueMix: !outcome.alternativeOptima,

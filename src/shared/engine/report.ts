@@ -35,6 +35,23 @@ export interface MixReport {
   inclusions: InclusionReport[];
 }
 
+/**
+ * The part of a result that every solved formula shares (single or in an allocation): batch, costs in kg,
+ * tonne and batch terms, the mix and the levels achieved.
+ */
+export function solvedFormulaFields(rep: MixReport, batchKg: number) {
+  return {
+    batchKg,
+    costPerKg: rep.costPerKg,
+    costPerTonne: rep.costPerKg * 1000,
+    costPerBatch: rep.costPerKg * batchKg,
+    mix: rep.mix,
+    nutrients: rep.nutrients,
+    ratios: rep.ratios,
+    groups: rep.groups,
+  };
+}
+
 /** Index of the LP row of each nutrient / ratio side / group (-1 when it has none). */
 export function rowIndexes(model: FormulaModel) {
   const nutrient = new Array(model.problem.nutrients.length).fill(-1);

@@ -16,6 +16,7 @@ import type {
   NutrientReport,
   RatioReport,
   ReadablePrice,
+  SolvedFormulaFields,
 } from '../schemas/formulation';
 import { clean, fmt, money } from './format';
 import { defaultStep, nutrientOf, type FormulaModel } from './formula-model';
@@ -39,7 +40,7 @@ export interface MixReport {
  * The part of a result that every solved formula shares (single or in an allocation): batch, costs in kg,
  * tonne and batch terms, the mix and the levels achieved.
  */
-export function solvedFormulaFields(rep: MixReport, batchKg: number) {
+export function solvedFormulaFields(rep: MixReport, batchKg: number): SolvedFormulaFields {
   return {
     batchKg,
     costPerKg: rep.costPerKg,

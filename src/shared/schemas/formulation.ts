@@ -477,10 +477,8 @@ export interface SolutionCheck {
   tolerance: number;
 }
 
-export interface OptimalResult {
-  status: 'optimal';
-  name?: string;
-  currency?: string;
+/** What every solved formula reports, alone or in an allocation: batch (kg), costs per kg, tonne and batch, mix and levels. */
+export interface SolvedFormulaFields {
   batchKg: number;
   costPerKg: number;
   costPerTonne: number;
@@ -489,6 +487,12 @@ export interface OptimalResult {
   nutrients: NutrientReport[];
   ratios: RatioReport[];
   groups: GroupReport[];
+}
+
+export interface OptimalResult extends SolvedFormulaFields {
+  status: 'optimal';
+  name?: string;
+  currency?: string;
   inclusions: InclusionReport[];
   /** Empty when options.sensitivity is false. */
   ranging: RangingReport[];
@@ -571,17 +575,9 @@ export interface StockReport {
   valuePerTonne: number;
 }
 
-export interface AllocatedFormula {
+export interface AllocatedFormula extends SolvedFormulaFields {
   id: string;
   name?: string;
-  batchKg: number;
-  costPerKg: number;
-  costPerTonne: number;
-  costPerBatch: number;
-  mix: MixLine[];
-  nutrients: NutrientReport[];
-  ratios: RatioReport[];
-  groups: GroupReport[];
 }
 
 export interface AllocationOptimal {

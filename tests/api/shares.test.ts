@@ -57,7 +57,8 @@ describe('shares API', () => {
       const { status, body } = await advisor.call('POST', '/api/shares', { kind: 'formula_version', formulaId: approved.formulaId, versionId: approved.version.id, toOrganizationId: orrinId, note: 'For your starter batches.' });
       assert.equal(status, 201);
       created = body as ShareCreated;
-      assert.deepEqual(created.recipients, ['farmer@orrinhollow.example']);
+      // Every member of the farm except the sender: its owner and its farm worker (demo accounts).
+      assert.deepEqual([...created.recipients].sort(), ['farmer@orrinhollow.example', 'worker@orrinhollow.example']);
       assert.match(created.link, /\/shared\/[A-Za-z0-9_-]{16,}$/);
       const mail = await waitForMail(app.inbox, (m) => m.to.includes('farmer@orrinhollow.example') && m.subject.includes('Broiler starter'));
       assert.ok(mail.text.includes(created.link), 'the mail carries the link');

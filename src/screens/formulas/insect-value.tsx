@@ -3,6 +3,7 @@ import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { useFormulaPriceSweepMutation } from '@/api/formulas';
 import { PriceSweepChart } from '@/components/charts/price-sweep-chart';
+import { CautionBanner } from '@/components/caution-banner';
 import { describeError } from '@/components/error-state';
 import { FormMessage } from '@/components/form-message';
 import { Button } from '@/components/ui/button';
@@ -45,6 +46,7 @@ export function InsectValue({ formulaId, meals, currentInputs, units }: { units:
       <FormMessage tone="danger" text={sweep.isError ? describeError(sweep.error) : null} />
       {data ? (
         <View style={styles.result} testID="insect-value-result">
+          <CautionBanner compact />
           <AppText testID="insect-enters">
             {data.sweep.entersAtPrice === null
               ? `In ${units.currency}: ${data.ingredientName} does not enter this mix at any price from ${p(steps[0]?.pricePerKg, 3)} to ${p(steps[steps.length - 1]?.pricePerKg, 3)} ${per} (or a minimum keeps it in at every price).`

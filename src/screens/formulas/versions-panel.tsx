@@ -3,6 +3,7 @@ import { StyleSheet, View } from 'react-native';
 
 import { useFormulaCompareQuery, useVersionApproveMutation } from '@/api/formulas';
 import { useActiveMembership } from '@/api/session';
+import { CautionBanner } from '@/components/caution-banner';
 import { describeError } from '@/components/error-state';
 import { FormMessage } from '@/components/form-message';
 import { Button } from '@/components/ui/button';
@@ -68,6 +69,7 @@ function Compare({ formulaId, versions, units }: { formulaId: number; versions: 
       {diff.isError ? <FormMessage tone="danger" text={describeError(diff.error)} /> : null}
       {d ? (
         <View style={styles.compareBody} testID="compare-result">
+          <CautionBanner compact />
           <AppText>
             Cost per {units.tonneWord}: A {cost(d.cost.aPerTonne)}, B {cost(d.cost.bPerTonne)}
             {d.cost.diffPerTonne !== null ? `, B − A ${signed(units.costOf(d.cost.diffPerTonne))} ${units.currency} per ${units.tonneWord}` : ' (one of them has no mix)'}

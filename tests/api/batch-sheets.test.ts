@@ -3,13 +3,12 @@ import { after, before, describe, test } from 'node:test';
 import { eq } from 'drizzle-orm';
 import Papa from 'papaparse';
 
-import { DEMO_PASSWORD } from '../../server/db/demo/accounts';
-import { batchLogs, formulas, formulaVersions, organizations } from '../../server/db/schema';
-import { seedDemoData } from '../../server/db/seed';
+import { batchLogs, formulas, formulaVersions } from '../../server/db/schema';
 import type { BatchLogEntry, BatchSheetResponse } from '../../src/shared/schemas/batch-sheets';
 import type { ApprovedFormula } from '../../src/shared/schemas/formulas';
-import { signedInClient, type Client } from '../helpers/accounts';
-import { startTestApp, type TestApp } from '../helpers/app';
+import type { Client } from '../helpers/accounts';
+import { organizationId, signInAsDemo, startDemoApp } from '../helpers/demo';
+import type { TestApp } from '../helpers/app';
 
 const sum = (xs: number[]) => xs.reduce((s, x) => s + x, 0);
 
@@ -23,15 +22,13 @@ describe('batch sheets API', () => {
   let draftId: number;
 
   before(async () => {
-    app = await startTestApp('batch_sheets_api');
+    app = await startDemoApp('batch_sheets_api');
     const db = app.database.db;
-    await seedDemoData(db);
     const base = app.server.baseUrl;
-    operator = await signedInClient(base, 'operator@tamsby.example', DEMO_PASSWORD);
-    owner = await signedInClient(base, 'owner@tamsby.example', DEMO_PASSWORD);
-    farmer = await signedInClient(base, 'farmer@orrinhollow.example', DEMO_PASSWORD);
-    const [orrin] = await db.select().from(organizations).where(eq(organizations.name, 'Orrin Hollow Larvae Farm'));
-    await farmer.call('PUT', '/api/auth/active-organization', { organizationId: orrin.id });
+    operator = await signInAsDemo(base, 'operator@tamsby.example');
+    owner = await signInAsDemo(base, 'owner@tamsby.example');
+    farmer = await signInAsDemo(base, 'farmer@orrinhollow.example');
+    await farmer.call('PUT', '/api/auth/active-organization', { organizationId: await organizationId(db, 'Orrin Hollow Larvae Farm') });
     const approved = (await operator.call('GET', '/api/formulas/approved')).body as ApprovedFormula[];
     approvedId = approved[0].version.id;
     const [grower] = await db.select().from(formulas).where(eq(formulas.name, 'Broiler grower with larvae meal'));

@@ -2,12 +2,11 @@ import assert from 'node:assert/strict';
 import { after, before, describe, test } from 'node:test';
 import { and, count, eq, isNull } from 'drizzle-orm';
 
-import { DEMO_PASSWORD } from '../../server/db/demo/accounts';
-import { formulas, formulaVersions, ingredients, organizations, specifications } from '../../server/db/schema';
-import { seedDemoData } from '../../server/db/seed';
+import { formulas, formulaVersions, ingredients, specifications } from '../../server/db/schema';
 import type { FormulaDetail, FormulaPriceSweep, FormulaSolve, VersionDetail } from '../../src/shared/schemas/formulas';
-import { signedInClient, type Client } from '../helpers/accounts';
-import { startTestApp, type TestApp } from '../helpers/app';
+import type { Client } from '../helpers/accounts';
+import { organizationId, signInAsDemo, startDemoApp } from '../helpers/demo';
+import type { TestApp } from '../helpers/app';
 
 const close = (actual: number, expected: number, tol: number, what: string) => assert.ok(Math.abs(actual - expected) <= tol, `${what}: ${actual} is not within ${tol} of ${expected}`);
 
@@ -26,15 +25,14 @@ describe('formulas API', () => {
   const own: Record<string, number> = {};
 
   before(async () => {
-    app = await startTestApp('formulas_api');
+    app = await startDemoApp('formulas_api');
     const db = app.database.db;
-    await seedDemoData(db);
     const base = app.server.baseUrl;
-    nutritionist = await signedInClient(base, 'nutritionist@tamsby.example', DEMO_PASSWORD);
-    operator = await signedInClient(base, 'operator@tamsby.example', DEMO_PASSWORD);
-    outsider = await signedInClient(base, 'farmer@orrinhollow.example', DEMO_PASSWORD);
-    await outsider.call('PUT', '/api/auth/active-organization', { organizationId: (await db.select().from(organizations).where(eq(organizations.name, 'Orrin Hollow Larvae Farm')))[0].id });
-    millId = (await db.select().from(organizations).where(eq(organizations.name, 'Tamsby Cooperative Feed Mill')))[0].id;
+    nutritionist = await signInAsDemo(base, 'nutritionist@tamsby.example');
+    operator = await signInAsDemo(base, 'operator@tamsby.example');
+    outsider = await signInAsDemo(base, 'farmer@orrinhollow.example');
+    await outsider.call('PUT', '/api/auth/active-organization', { organizationId: await organizationId(db, 'Orrin Hollow Larvae Farm') });
+    millId = await organizationId(db, 'Tamsby Cooperative Feed Mill');
     const [refGrower] = await db.select().from(specifications).where(and(isNull(specifications.organizationId), eq(specifications.code, 'nrc1994-broiler-grower')));
     growerSpecId = (await db.select().from(specifications).where(and(eq(specifications.organizationId, millId), eq(specifications.copiedFromId, refGrower.id))))[0].id;
     for (const code of ['maize', 'soybean-meal-48', 'soybean-oil', 'limestone', 'dicalcium-phosphate', 'salt', 'l-lysine-hcl', 'dl-methionine', 'l-threonine', 'bsf-full-fat-brewery', 'bsf-defatted', 'wheat']) {

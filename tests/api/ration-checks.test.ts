@@ -2,12 +2,11 @@ import assert from 'node:assert/strict';
 import { after, before, describe, test } from 'node:test';
 import { and, eq, isNull } from 'drizzle-orm';
 
-import { DEMO_PASSWORD } from '../../server/db/demo/accounts';
-import { ingredients, organizations, specifications } from '../../server/db/schema';
-import { seedDemoData } from '../../server/db/seed';
+import { ingredients, specifications } from '../../server/db/schema';
 import type { RationCheckResponse, RationChoices } from '../../src/shared/schemas/ration-checks';
-import { signedInClient, type Client } from '../helpers/accounts';
-import { startTestApp, type TestApp } from '../helpers/app';
+import type { Client } from '../helpers/accounts';
+import { organizationId, signInAsDemo, startDemoApp } from '../helpers/demo';
+import type { TestApp } from '../helpers/app';
 
 const close = (actual: number, expected: number, tol: number, what: string) => assert.ok(Math.abs(actual - expected) <= tol, `${what}: ${actual} is not within ${tol} of ${expected}`);
 
@@ -32,14 +31,12 @@ describe('ration checks API', () => {
   });
 
   before(async () => {
-    app = await startTestApp('ration_checks_api');
+    app = await startDemoApp('ration_checks_api');
     const db = app.database.db;
-    await seedDemoData(db);
     const base = app.server.baseUrl;
-    farmer = await signedInClient(base, 'farmer@orrinhollow.example', DEMO_PASSWORD);
-    const [orrin] = await db.select().from(organizations).where(eq(organizations.name, 'Orrin Hollow Larvae Farm'));
-    await farmer.call('PUT', '/api/auth/active-organization', { organizationId: orrin.id });
-    operator = await signedInClient(base, 'operator@tamsby.example', DEMO_PASSWORD);
+    farmer = await signInAsDemo(base, 'farmer@orrinhollow.example');
+    await farmer.call('PUT', '/api/auth/active-organization', { organizationId: await organizationId(db, 'Orrin Hollow Larvae Farm') });
+    operator = await signInAsDemo(base, 'operator@tamsby.example');
     starterId = (await db.select().from(specifications).where(and(isNull(specifications.organizationId), eq(specifications.code, 'nrc1994-broiler-starter'))))[0].id;
     refSoyId = (await db.select().from(ingredients).where(and(isNull(ingredients.organizationId), eq(ingredients.code, 'soybean-meal-48'))))[0].id;
   });

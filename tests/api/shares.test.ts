@@ -2,13 +2,12 @@ import assert from 'node:assert/strict';
 import { after, before, describe, test } from 'node:test';
 import { and, eq, isNull } from 'drizzle-orm';
 
-import { DEMO_PASSWORD } from '../../server/db/demo/accounts';
-import { organizations, shares, specifications } from '../../server/db/schema';
-import { seedDemoData } from '../../server/db/seed';
+import { shares, specifications } from '../../server/db/schema';
 import type { ApprovedFormula } from '../../src/shared/schemas/formulas';
 import type { ShareCreated, ShareDetail, ShareTarget } from '../../src/shared/schemas/shares';
 import { createOrganization, createUser, signedInClient, type Client } from '../helpers/accounts';
-import { startTestApp, waitForMail, type TestApp } from '../helpers/app';
+import { organizationId, signInAsDemo, startDemoApp } from '../helpers/demo';
+import { waitForMail, type TestApp } from '../helpers/app';
 
 /**
  * Sharing at the demo scenario: the advisor (Upper Wend, also advisor at Tamsby and at Orrin Hollow)
@@ -27,16 +26,15 @@ describe('shares API', () => {
   let created: ShareCreated;
 
   before(async () => {
-    app = await startTestApp('shares_api');
+    app = await startDemoApp('shares_api');
     const db = app.database.db;
-    await seedDemoData(db);
     const base = app.server.baseUrl;
-    const org = async (name: string) => (await db.select().from(organizations).where(eq(organizations.name, name)))[0].id;
+    const org = (name: string) => organizationId(db, name);
     [orrinId, upperWendId, tamsbyId] = [await org('Orrin Hollow Larvae Farm'), await org('Upper Wend Extension Office'), await org('Tamsby Cooperative Feed Mill')];
-    advisor = await signedInClient(base, 'advisor@upperwend.example', DEMO_PASSWORD);
+    advisor = await signInAsDemo(base, 'advisor@upperwend.example');
     await advisor.call('PUT', '/api/auth/active-organization', { organizationId: tamsbyId });
-    farmer = await signedInClient(base, 'farmer@orrinhollow.example', DEMO_PASSWORD);
-    operator = await signedInClient(base, 'operator@tamsby.example', DEMO_PASSWORD);
+    farmer = await signInAsDemo(base, 'farmer@orrinhollow.example');
+    operator = await signInAsDemo(base, 'operator@tamsby.example');
     const elsewhere = await createOrganization(db, 'Lower Wend Hen Farm', 'farm');
     await createUser(db, { email: 'keeper@lowerwend.example', organizationId: elsewhere.id, role: 'owner' });
     stranger = await signedInClient(base, 'keeper@lowerwend.example');

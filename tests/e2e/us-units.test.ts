@@ -125,6 +125,11 @@ describe('US units and currency in the browser', () => {
     await page.screenshot({ path: join(TEST_OUTPUT, 'us-units-prices.png'), fullPage: true });
 
     // Insect supply: 2 t a week of brewery grains = 2,000 / 907.18474 = 2.2046 short tons.
+    // The settings are held back on purpose: the page must wait for them, never show tonnes for a moment.
+    await page.route('**/api/organization-settings', async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 1500));
+      await route.continue();
+    });
     await page.goto(`${t.server.baseUrl}/insect-supply`);
     await visible(page, 'supply-plan').waitFor();
     assert.match(await visible(page, 'supply-total-in').innerText(), /^2\.20\s*short ton\/week$/);

@@ -4,6 +4,7 @@ import { TabList, Tabs, TabSlot, TabTrigger } from 'expo-router/ui';
 
 import { colors, space, WIDE_MIN_WIDTH } from '@/theme';
 
+import { MeasuresGate } from '../measures-gate';
 import { AppText } from '../ui/text';
 import { NavItem } from './nav-item';
 import { SECTIONS } from './sections';
@@ -21,7 +22,9 @@ export function AppShell() {
   return (
     <Tabs style={[styles.root, wide ? styles.rootWide : styles.rootNarrow]}>
       <View style={styles.main}>
-        <TabSlot style={styles.slot} />
+        <MeasuresGate>
+          <TabSlot style={styles.slot} />
+        </MeasuresGate>
       </View>
       <TabList
         accessibilityRole="tablist"

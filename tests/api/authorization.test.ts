@@ -43,16 +43,16 @@ describe('authorization table', () => {
   });
   after(async () => testApp?.close());
 
-  test('every API route declares who may call it', () => {
-    const { createApp } = require('../../server/app') as typeof import('../../server/app');
+  test('every API route declares who may call it', async () => {
+    const { createApp } = await import('../../server/app');
     const routes = listRoutes(createApp({ db: testApp.database.db }));
     assert.ok(routes.length > 10, 'the walk found the API routes');
     const unguarded = routes.filter((route) => route.pattern.startsWith('/api') && !route.rule).map((r) => `${r.method} ${r.pattern}`);
     assert.deepEqual(unguarded, [], 'routes without an access guard');
   });
 
-  test('every API route has a row in the table, and every row names a real route', () => {
-    const { createApp } = require('../../server/app') as typeof import('../../server/app');
+  test('every API route has a row in the table, and every row names a real route', async () => {
+    const { createApp } = await import('../../server/app');
     const routes = listRoutes(createApp({ db: testApp.database.db })).filter((r) => r.pattern.startsWith('/api'));
     const key = (method: string, pattern: string) => `${method} ${pattern}`;
     const rows = new Set(cases.map((c) => key(c.method, c.pattern)));

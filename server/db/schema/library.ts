@@ -1,14 +1,5 @@
 import { date, decimal, double, index, int, json, mysqlEnum, mysqlTable, primaryKey, text, timestamp, varchar } from 'drizzle-orm/mysql-core';
 
-/**
- * Decimal places kept for prices per kg. Ten, so a price typed per lb (or any other unit) converts to per kg and back
- * without a visible change: 1.00 per lb is 2.2046226218 per kg.
- */
-export const PRICE_SCALE = 10;
-
-/** A price per kg as the decimal column takes it. */
-export const priceColumn = (pricePerKg: number): string => pricePerKg.toFixed(PRICE_SCALE);
-
 import {
   AMINO_ACID_BASES,
   CONFIDENCE_LEVELS,
@@ -24,6 +15,15 @@ import {
 } from '../../../src/shared/library-terms';
 import { users } from './accounts';
 import { organizations } from './organizations';
+
+/**
+ * Decimal places kept for prices per kg. Ten, so a price typed per lb (or any other unit) converts to per kg and back
+ * without a visible change: 1.00 per lb is 2.2046226218 per kg.
+ */
+export const PRICE_SCALE = 10;
+
+/** A price per kg as the decimal column takes it. */
+export const priceColumn = (pricePerKg: number): string => pricePerKg.toFixed(PRICE_SCALE);
 
 /**
  * The nutrient catalogue, shared by every organization. Ids are short stable codes (`cp`, `sid_lys`) that

@@ -8,7 +8,7 @@ import { Screen } from '@/components/screen';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { AppText } from '@/components/ui/text';
-import { colors, space } from '@/theme';
+import { colors } from '@/theme';
 
 type ReceivedMail = { id: number; to: string[]; from: string; subject: string; text: string; attachments: { filename: string }[]; receivedAt: string };
 

@@ -3,6 +3,8 @@ import { eq } from 'drizzle-orm';
 import type { Db } from './client';
 import { seedDemoLibraries } from './reference-data/demo-library';
 import { seedReferenceLibrary } from './reference-data/seed-library';
+import { REFERENCE_PULLETS_STEP } from './reference-data/pullets';
+import { REFERENCE_FIBRE_STEP } from './reference-data/fibre-fractions';
 import { seedDemoShares } from './demo/shares';
 import { seedDemoAccounts } from './demo/accounts';
 import { seedDemoSupplyPlans } from './demo/supply';
@@ -26,6 +28,8 @@ export const REFERENCE_LIBRARY_STEP: SeedStep = { name: 'reference-library-v1', 
 
 export const DEMO_SEED_STEPS: SeedStep[] = [
   REFERENCE_LIBRARY_STEP,
+  REFERENCE_PULLETS_STEP,
+  REFERENCE_FIBRE_STEP,
   { name: 'demo-organizations-v1', apply: async (tx) => void (await tx.insert(organizations).values(DEMO_ORGANIZATIONS)) },
   { name: 'demo-accounts-v1', apply: seedDemoAccounts },
   { name: 'demo-libraries-v1', apply: seedDemoLibraries },

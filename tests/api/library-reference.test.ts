@@ -1,6 +1,6 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, test } from 'node:test';
-import { and, eq, isNull } from 'drizzle-orm';
+import { and, eq, inArray, isNull, like } from 'drizzle-orm';
 
 import {
   ingredientNutrientValues,
@@ -12,8 +12,14 @@ import {
   specificationNutrients,
   specifications,
 } from '../../server/db/schema';
-import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
+import { loadCatalogue } from '../../server/db/queries/lab-imports';
+import { FIBRE_NUTRIENTS, REFERENCE_FIBRE_STEP } from '../../server/db/reference-data/fibre-fractions';
+import { PULLET_SPECIFICATIONS, REFERENCE_PULLETS_STEP } from '../../server/db/reference-data/pullets';
+import { copyIngredientsToOrganization } from '../../server/db/reference-data/seed-library';
+import { DEMO_SEED_STEPS, REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
+import { buildLabPreview } from '../../src/shared/lab-import';
 import { asFedToDryMatter, kcalToMJ } from '../../src/shared/units';
+import { createOrganization } from '../helpers/accounts';
 import { createTestDatabase, type TestDatabase } from '../helpers/db';
 
 const close = (actual: number, expected: number, tolerance: number, what: string) =>
@@ -51,13 +57,13 @@ describe('the reference library as seeded', () => {
 
   before(async () => {
     database = await createTestDatabase('library_reference');
-    assert.deepEqual(await seedDemoData(database.db, [REFERENCE_LIBRARY_STEP]), ['reference-library-v1']);
+    assert.deepEqual(await seedDemoData(database.db, [REFERENCE_LIBRARY_STEP, REFERENCE_PULLETS_STEP, REFERENCE_FIBRE_STEP]), ['reference-library-v1', 'reference-pullets-v1', 'reference-fibre-v1']);
   });
   after(async () => database?.drop());
 
   test('the catalogue covers the required nutrients, with each amino acid on three separate bases', async () => {
     const ids = new Set((await database.db.select({ id: nutrients.id }).from(nutrients)).map((n) => n.id));
-    for (const id of ['dm', 'cp', 'ee', 'cf', 'ash', 'starch', 'amen_poultry', 'de_swine', 'me_swine', 'ne_swine', 'ca', 'p', 'avp', 'sttd_p', 'na', 'cl', 'k', 'linoleic', 'lauric', 'chitin']) {
+    for (const id of ['dm', 'cp', 'ee', 'cf', 'adf', 'ndf', 'ash', 'starch', 'amen_poultry', 'de_swine', 'me_swine', 'ne_swine', 'ca', 'p', 'avp', 'sttd_p', 'na', 'cl', 'k', 'linoleic', 'lauric', 'chitin']) {
       assert.ok(ids.has(id), `catalogue has ${id}`);
     }
     for (const aa of ['lys', 'met', 'metcys', 'thr', 'trp', 'arg', 'ile', 'val', 'leu']) {
@@ -163,5 +169,116 @@ describe('the reference library as seeded', () => {
     for (const s of specs) assert.ok(s.source.length > 10, `${s.code} names its table`);
     const phaseCount = (await database.db.select().from(phases)).length;
     assert.ok(phaseCount >= 15);
+  });
+  test('NRC 1994 Table 2-1 (p. 19), white-egg pullets: four phases with the ten nutrients, total amino acids, every value marked as recalled', async () => {
+    const wanted = ['amen_poultry', 'cp', 'lys', 'met', 'metcys', 'ca', 'avp', 'na', 'cl', 'linoleic'];
+    const rows = await database.db
+      .select({ spec: specifications, phase: phases, species: species })
+      .from(specifications)
+      .innerJoin(species, eq(species.id, specifications.speciesId))
+      .innerJoin(phases, eq(phases.id, specifications.phaseId))
+      .where(and(isNull(specifications.organizationId), eq(species.code, 'pullet')));
+    assert.deepEqual(rows.map((r) => r.spec.code).sort(), ['nrc1994-pullet-0-6', 'nrc1994-pullet-12-18', 'nrc1994-pullet-18-lay', 'nrc1994-pullet-6-12']);
+    assert.deepEqual(
+      rows.sort((a, b) => a.phase.sortOrder - b.phase.sortOrder).map((r) => r.phase.span),
+      ['0–6 weeks', '6–12 weeks', '12–18 weeks', '18 weeks to first egg'],
+    );
+    for (const { spec } of rows) {
+      // The table is named with its page; the values were recalled, and the source says so.
+      assert.match(spec.source, /NRC \(1994\).*Table 2-1 \(p\. 19\)/, `${spec.code} names its table`);
+      assert.match(spec.source, /from memory/, `${spec.code} says its values are recalled`);
+      assert.match(spec.notes ?? '', /Total amino acids/, `${spec.code} states the amino-acid basis`);
+      const bounds = await database.db.select().from(specificationNutrients).where(eq(specificationNutrients.specificationId, spec.id));
+      assert.deepEqual(bounds.map((b) => b.nutrientId).sort(), [...wanted].sort(), `${spec.code} bounds the ten nutrients`);
+      for (const b of bounds) {
+        assert.equal(b.confidence, 'from_memory', `${spec.code} ${b.nutrientId} is marked as recalled`);
+        assert.match(b.note ?? '', /Table 2-1/, `${spec.code} ${b.nutrientId} names the table`);
+        assert.ok(b.min !== null && b.min > 0 && b.max === null, `${spec.code} ${b.nutrientId} is a minimum`);
+      }
+      // Methionine is part of methionine + cystine (chemistry), and pullet diets hold more calcium than available P (common practice).
+      const min = (id: string) => bounds.find((b) => b.nutrientId === id)!.min!;
+      assert.ok(min('metcys') > min('met') && min('ca') > min('avp'), `${spec.code} is internally consistent`);
+    }
+    // The added phase ends at the first egg, not at a fixed age.
+    const preLay = rows.find((r) => r.spec.code === 'nrc1994-pullet-18-lay')!.phase;
+    assert.equal(preLay.ageFromDays, 126);
+    assert.equal(preLay.ageToDays, null);
+    assert.equal(PULLET_SPECIFICATIONS.length, rows.length);
+  });
+
+  test('NDF and ADF are in the catalogue, and the BSF larvae on brewers’ by-product carry the published values (Animals 2020, 10:682, Table 1: aNDF 13.0, ADF 7.92 % DM)', async () => {
+    const rows = await database.db.select().from(nutrients).where(inArray(nutrients.id, ['adf', 'ndf']));
+    assert.equal(rows.length, 2);
+    for (const n of rows) {
+      assert.equal(n.unit, '%');
+      assert.equal(n.nutrientGroup, 'fat_and_fibre');
+      assert.deepEqual([...n.families].sort(), ['poultry', 'swine']);
+    }
+    const ndf = await value('bsf-full-fat-brewery', 'ndf');
+    const adf = await value('bsf-full-fat-brewery', 'adf');
+    close(asFedToDryMatter(ndf.value, ndf.dm), 13.0, 1e-6, 'aNDF on DM');
+    close(asFedToDryMatter(adf.value, adf.dm), 7.92, 1e-6, 'ADF on DM');
+    // Same value set as the rest of that table, so the source and its dry matter travel with them.
+    assert.equal(adf.source, (await value('bsf-full-fat-brewery', 'cp')).source);
+    // No other reference ingredient has a detergent fibre value: none other was read in a source.
+    const all = await database.db
+      .select({ code: ingredients.code })
+      .from(ingredientNutrientValues)
+      .innerJoin(ingredients, eq(ingredients.id, ingredientNutrientValues.ingredientId))
+      .where(and(isNull(ingredients.organizationId), inArray(ingredientNutrientValues.nutrientId, ['adf', 'ndf'])));
+    assert.deepEqual(all.map((r) => r.code), ['bsf-full-fat-brewery', 'bsf-full-fat-brewery']);
+  });
+
+  test('a lab file with ADF and NDF columns stores them as nutrients and the pig net-energy equation finds ADF', async () => {
+    const catalogue = await loadCatalogue(database.db);
+    assert.ok(FIBRE_NUTRIENTS.every((n) => catalogue.some((c) => c.id === n.id)), 'the import sees NDF and ADF');
+    const p = buildLabPreview('Sample,DM %,CP %,EE %,Ash %,NDF %,ADF %,Starch %\nW,88,12,2,1.8,11,3,58\n', { estimation: { classId: 'wheat', families: ['swine'] } }, catalogue);
+    assert.equal(p.ok, true, JSON.stringify(p.issues));
+    assert.deepEqual(p.fields.filter((f) => /DF/.test(f.key)).map((f) => f.mapping.target), ['ndf', 'adf']);
+    const sample = p.samples[0];
+    assert.equal(sample.values.find((v) => v.nutrientId === 'adf')?.origin, 'measured');
+    const ne = sample.values.find((v) => v.nutrientId === 'ne_swine');
+    assert.equal(ne?.method?.id, 'noblet_ne_from_me');
+    // NE from ME on DM: 0.726 ME + 1.33 EE + 0.39 ST − 0.62 CP − 0.83 ADF, g/kg DM (Noblet et al. 1994, as given by NRC 2012).
+    const me = sample.values.find((v) => v.nutrientId === 'me_swine')!;
+    const g = (pct: number) => (pct * 10) / 0.88;
+    close(ne!.dryMatter, 0.726 * me.dryMatter + 1.33 * g(2) + 0.39 * g(58) - 0.62 * g(12) - 0.83 * g(3), 1e-6, 'NE on DM');
+  });
+});
+
+describe('a database that already holds the first reference library', () => {
+  let database: TestDatabase;
+
+  before(async () => {
+    database = await createTestDatabase('library_reference_upgrade');
+    await seedDemoData(database.db, [REFERENCE_LIBRARY_STEP]);
+  });
+  after(async () => database?.drop());
+
+  test('gets the pullet specifications and the fibre fractions once, and an organization’s own copies are left as they were', async () => {
+    const org = await createOrganization(database.db, 'Brackenfold Mill');
+    const [bsf] = await database.db.select().from(ingredients).where(and(isNull(ingredients.organizationId), eq(ingredients.code, 'bsf-full-fat-brewery')));
+    const copies = await copyIngredientsToOrganization(database.db, org.id, [bsf.id]);
+    const ownCopy = copies.get(bsf.id)!;
+    const pulletSpecs = () => database.db.select().from(specifications).where(and(isNull(specifications.organizationId), like(specifications.code, 'nrc1994-pullet-%')));
+    assert.equal((await pulletSpecs()).length, 0);
+
+    const steps = [REFERENCE_LIBRARY_STEP, REFERENCE_PULLETS_STEP, REFERENCE_FIBRE_STEP];
+    assert.deepEqual(await seedDemoData(database.db, steps), ['reference-pullets-v1', 'reference-fibre-v1']);
+    assert.equal((await pulletSpecs()).length, 4);
+    const [after] = await database.db.select().from(ingredients).where(eq(ingredients.id, bsf.id));
+    assert.equal(after.version, bsf.version + 1, 'the reference ingredient changed, so its version rose');
+    const ownValues = await database.db.select().from(ingredientNutrientValues).where(and(eq(ingredientNutrientValues.ingredientId, ownCopy), inArray(ingredientNutrientValues.nutrientId, ['adf', 'ndf'])));
+    assert.equal(ownValues.length, 0, 'the organization’s copy is its own');
+
+    assert.deepEqual(await seedDemoData(database.db, steps), []);
+    assert.equal((await pulletSpecs()).length, 4);
+  });
+
+  test('the demo data applies the new steps right after the first library, before anything is copied from it', () => {
+    const names = DEMO_SEED_STEPS.map((s) => s.name);
+    const first = names.indexOf('reference-library-v1');
+    assert.deepEqual(names.slice(first, first + 3), ['reference-library-v1', 'reference-pullets-v1', 'reference-fibre-v1']);
+    assert.ok(names.indexOf('reference-fibre-v1') < names.indexOf('demo-libraries-v1'));
   });
 });

@@ -16,8 +16,8 @@ const TARGET_WORDS: [FieldTargetId, string[]][] = [
   ['cp', ['crude protein', 'protein n x 6 25', 'n x 6 25', 'protein', 'cp', 'kjeldahl protein', 'dumas protein']],
   ['ee', ['ether extract', 'crude fat', 'crude fat ether extract', 'fat', 'oil', 'ee', 'lipid', 'lipids', 'total fat', 'acid hydrolysed fat', 'acid hydrolyzed fat']],
   ['cf', ['crude fibre', 'crude fiber', 'cf', 'fibre', 'fiber']],
-  ['aux:adf', ['adf', 'acid detergent fibre', 'acid detergent fiber']],
-  ['aux:ndf', ['ndf', 'andf', 'neutral detergent fibre', 'neutral detergent fiber']],
+  ['adf', ['adf', 'adfom', 'acid detergent fibre', 'acid detergent fiber', 'acid detergent fibre organic matter', 'acid detergent fiber organic matter']],
+  ['ndf', ['ndf', 'andf', 'ndfom', 'andfom', 'neutral detergent fibre', 'neutral detergent fiber', 'amylase neutral detergent fibre', 'amylase neutral detergent fiber', 'amylase treated ndf', 'amylase ndf']],
   ['aux:nfe', ['nfe', 'nitrogen free extract']],
   ['ash', ['ash', 'crude ash', 'total ash', 'ca ash']],
   ['starch', ['starch', 'total starch']],
@@ -111,6 +111,12 @@ function matchWords(core: string, table: [string, string[]][]): { target: string
 export type Suggestion = { target: FieldTargetId; unit: SourceUnit | null; basis: ReportBasis | null; confident: boolean };
 
 /**
+ * Catalogue nutrients that older catalogues lack but the import can still use as auxiliary analyses:
+ * without them in `known` (or without `known`), ADF and NDF still feed the pig energy equations.
+ */
+const AUX_WHEN_NOT_IN_CATALOGUE: Record<string, FieldTargetId> = { adf: 'aux:adf', ndf: 'aux:ndf' };
+
+/**
  * Suggests what a header (or row label) is.
  * @param label the field as the lab wrote it
  * @param known catalogue nutrient ids: suggestions outside it become `ignore`
@@ -123,12 +129,15 @@ export function suggestField(label: string, known?: ReadonlySet<string>): Sugges
     .replace(/kcal\s*\/\s*kg|mj\s*\/\s*kg|mg\s*\/\s*kg|g\s*\/\s*kg|g\s*\/\s*100\s*g|\bppm\b|%|\bpercent\b|\bpct\b|\biu\b/g, ' ')
     .replace(/\s+/g, ' ')
     .trim();
-  const resolve = (target: FieldTargetId, confident: boolean): Suggestion => ({
-    target: known && !target.startsWith('aux:') && !['sample_id', 'sample_name', 'analysed_on', IGNORE].includes(target) && !known.has(target) ? IGNORE : target,
-    unit,
-    basis,
-    confident,
-  });
+  const resolve = (suggested: FieldTargetId, confident: boolean): Suggestion => {
+    const target = AUX_WHEN_NOT_IN_CATALOGUE[suggested] && !known?.has(suggested) ? AUX_WHEN_NOT_IN_CATALOGUE[suggested] : suggested;
+    return {
+      target: known && !target.startsWith('aux:') && !['sample_id', 'sample_name', 'analysed_on', IGNORE].includes(target) && !known.has(target) ? IGNORE : target,
+      unit,
+      basis,
+      confident,
+    };
+  };
   if (core === '') return resolve(IGNORE, false);
   if (/^(dm|dry matter|dry substance|total solids)$/.test(core)) return { ...resolve('dm', true), basis: null };
   const withoutBasis = core

@@ -3,7 +3,8 @@ import { Router } from 'express';
 import { copyIngredientInput, createIngredientInput, labAnalysisInput, listIngredientsQuery, updateIngredientInput } from '../../src/shared/schemas/ingredients';
 import { idParams } from '../../src/shared/schemas/library-common';
 import type { Db } from '../db/client';
-import { addLabAnalysis, copyIngredient, copyReferenceLibrary, createIngredient, deleteIngredient, getIngredient, listIngredients, updateIngredient } from '../db/queries/ingredients';
+import { copyIngredient, copyReferenceLibrary, createIngredient, deleteIngredient, getIngredient, listIngredients, updateIngredient } from '../db/queries/ingredients';
+import { recordTypedAnalysis } from '../db/queries/lab-imports';
 import { access, requireMembership } from '../http/access';
 
 /**
@@ -41,6 +42,7 @@ export function ingredientsRouter({ db }: { db: Db }): Router {
     res.json(await getIngredient(db, organizationId, id));
   });
 
+  // 409 `in_use`, naming them, while a formula, a specification's limit or a supply plan uses it.
   router.delete('/:id', access.member('library:write'), async (req, res) => {
     const { organizationId } = requireMembership(req);
     await deleteIngredient(db, organizationId, idParams.parse(req.params).id);
@@ -54,11 +56,11 @@ export function ingredientsRouter({ db }: { db: Db }): Router {
     res.status(201).json(await getIngredient(db, organizationId, newId));
   });
 
+  // A lab analysis typed in by hand: recorded in the analysis history and applied like an imported one.
   router.post('/:id/lab-analyses', access.member('lab:import'), async (req, res) => {
-    const { organizationId } = requireMembership(req);
+    const { organizationId, userId } = requireMembership(req);
     const { id } = idParams.parse(req.params);
-    await addLabAnalysis(db, organizationId, id, labAnalysisInput.parse(req.body));
-    res.status(201).json(await getIngredient(db, organizationId, id));
+    res.status(201).json(await recordTypedAnalysis(db, organizationId, userId, id, labAnalysisInput.parse(req.body)));
   });
 
   return router;

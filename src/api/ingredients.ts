@@ -2,10 +2,12 @@ import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient }
 
 import type { IngredientCategory, LibraryName } from '@/shared/library-terms';
 import type { CreateIngredientInput, IngredientDetail, IngredientSummary, LabAnalysisInput, UpdateIngredientInput } from '@/shared/schemas/ingredients';
+import type { LabAnalysisRecorded } from '@/shared/schemas/lab-imports';
 import type { Page } from '@/shared/schemas/library-common';
 import type { RecordPricesInput, RecordPricesResult } from '@/shared/schemas/prices';
 
 import { apiClient } from './client';
+import { labImportKeys } from './lab-imports';
 import { STALE } from './stale';
 
 export type IngredientListParams = { library: LibraryName; search?: string; category?: IngredientCategory; page?: number; pageSize?: number };
@@ -49,8 +51,32 @@ function useIngredientMutation<TInput>(fn: (input: TInput) => Promise<Ingredient
 
 export const useIngredientCreateMutation = () => useIngredientMutation((input: CreateIngredientInput) => apiClient.post<IngredientDetail>('/api/ingredients', input));
 export const useIngredientUpdateMutation = (id: number) => useIngredientMutation((input: UpdateIngredientInput) => apiClient.patch<IngredientDetail>(`/api/ingredients/${id}`, input));
-export const useLabAnalysisMutation = (id: number) =>
-  useIngredientMutation((input: LabAnalysisInput) => apiClient.post<IngredientDetail>(`/api/ingredients/${id}/lab-analyses`, input));
+
+/** Records a lab analysis typed in by hand: it joins the ingredient's analysis history, and its values the library. */
+export function useLabAnalysisMutation(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: LabAnalysisInput) => apiClient.post<LabAnalysisRecorded>(`/api/ingredients/${id}/lab-analyses`, input),
+    onSuccess: (recorded) => {
+      queryClient.setQueryData(ingredientKeys.detail(id), recorded.ingredient);
+      queryClient.invalidateQueries({ queryKey: labImportKeys.all });
+      return queryClient.invalidateQueries({ queryKey: [...ingredientKeys.all, 'list'] });
+    },
+  });
+}
+
+/** Deletes an ingredient of our library; a 409 `in_use` names the formulas and other things still using it. */
+export function useIngredientDeleteMutation(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => apiClient.delete<void>(`/api/ingredients/${id}`),
+    onSuccess: () => {
+      queryClient.removeQueries({ queryKey: ingredientKeys.detail(id) });
+      queryClient.invalidateQueries({ queryKey: labImportKeys.all });
+      return queryClient.invalidateQueries({ queryKey: [...ingredientKeys.all, 'list'] });
+    },
+  });
+}
 export const useIngredientCopyMutation = () => useIngredientMutation((id: number) => apiClient.post<IngredientDetail>(`/api/ingredients/${id}/copy`, {}));
 
 /** Starts (or completes) our library as a copy of the reference tables. */

@@ -129,8 +129,8 @@ describe('library API', () => {
       const lab = await advisor.call('POST', `/api/ingredients/${copy.body.id}/lab-analyses`, { laboratory: 'County lab', analysedOn: '2026-03-12', dryMatterPct: 90, basis: 'dry_matter', values: { cp: 52 } });
       assert.equal(lab.status, 201);
       // 52 % of DM at 90 % DM = 46.8 % as fed (value × DM / 100).
-      assert.ok(Math.abs(lab.body.values.cp - 46.8) < 1e-9);
-      assert.equal(lab.body.values.dm, 90);
+      assert.ok(Math.abs(lab.body.ingredient.values.cp - 46.8) < 1e-9);
+      assert.equal(lab.body.ingredient.values.dm, 90);
       assert.equal((await advisor.call('PATCH', `/api/ingredients/${copy.body.id}`, { name: 'x' })).status, 403, 'advisors import lab values, they do not edit the library');
     });
   });

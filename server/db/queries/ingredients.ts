@@ -4,26 +4,25 @@ import { checkInsectSubstrate, refusedFamilies } from '../../../src/shared/insec
 import type { OriginAnimal } from '../../../src/shared/library-terms';
 import type { z } from 'zod';
 
+import type { LabValue } from '../../../src/shared/lab-import/types';
 import type {
   createIngredientInput,
   IngredientDetail,
   IngredientSummary,
   InsectDetails,
-  labAnalysisInput,
   ListIngredientsQuery,
   updateIngredientInput,
 } from '../../../src/shared/schemas/ingredients';
+import type { KeptValue } from '../../../src/shared/schemas/lab-imports';
 import type { Page } from '../../../src/shared/schemas/library-common';
-import { dryMatterToAsFed } from '../../../src/shared/units';
-import { badRequest, notFound } from '../../http/errors';
+import { badRequest, HttpError, notFound } from '../../http/errors';
 import type { Db } from '../client';
 import { copyIngredientsToOrganization } from '../reference-data/seed-library';
-import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, species, priceColumn, type IngredientRow } from '../schema';
+import { formulas, ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, priceColumn, species, specificationCaps, specifications, supplyPlans, type IngredientRow } from '../schema';
 import { checkNutrientValues, likePattern, readOnlyReference, toNumber, today, versionConflict } from './library-shared';
 
 type CreateInput = z.output<typeof createIngredientInput>;
 type UpdateInput = z.output<typeof updateIngredientInput>;
-type LabInput = z.output<typeof labAnalysisInput>;
 
 /** Values shown in lists and tables without opening the ingredient. */
 export const SUMMARY_NUTRIENTS = ['dm', 'cp', 'ee', 'cf', 'ash', 'ca', 'p', 'avp', 'sttd_p', 'amen_poultry', 'ne_swine', 'lys', 'dig_lys', 'sid_lys'];
@@ -198,10 +197,56 @@ export async function updateIngredient(db: Db, organizationId: number, id: numbe
   });
 }
 
+/** Names in a message: the first few in quotes, then how many more. */
+function nameList(names: string[], most = 5): string {
+  const quoted = names.slice(0, most).map((n) => `“${n}”`);
+  const more = names.length > most ? ` and ${names.length - most} more` : '';
+  return `${quoted.join(', ')}${more}`;
+}
+
+/**
+ * What still uses an ingredient: formulas whose current inputs choose it, specifications that cap its
+ * inclusion, supply plans that take their meal's values from it. Kept formula versions are not uses:
+ * each holds its own copy of the values and prices it was solved with.
+ */
+async function usesOf(tx: Db, organizationId: number, id: number) {
+  const formulaRows = await tx.select({ id: formulas.id, name: formulas.name, inputs: formulas.inputs }).from(formulas).where(eq(formulas.organizationId, organizationId)).orderBy(asc(formulas.name));
+  const capRows = await tx
+    .selectDistinct({ id: specifications.id, name: specifications.name })
+    .from(specificationCaps)
+    .innerJoin(specifications, eq(specifications.id, specificationCaps.specificationId))
+    .where(and(eq(specificationCaps.ingredientId, id), eq(specifications.organizationId, organizationId)))
+    .orderBy(asc(specifications.name));
+  const planRows = await tx.select({ id: supplyPlans.id, name: supplyPlans.name }).from(supplyPlans).where(and(eq(supplyPlans.organizationId, organizationId), eq(supplyPlans.mealIngredientId, id))).orderBy(asc(supplyPlans.name));
+  return {
+    formulas: formulaRows.filter((f) => f.inputs.ingredients.some((i) => i.ingredientId === id)).map((f) => f.name),
+    specifications: capRows.map((c) => c.name),
+    supplyPlans: planRows.map((p) => p.name),
+  };
+}
+
+/**
+ * Deletes an ingredient of the organization's own library with its values, prices and analysis history.
+ * Refused (409 `in_use`, naming each use) while a formula, a specification's inclusion limit or a supply
+ * plan still uses it, so nothing that uses it changes silently; kept formula versions never stop it.
+ */
 export async function deleteIngredient(db: Db, organizationId: number, id: number): Promise<void> {
   await db.transaction(async (tx) => {
-    await lockOwnIngredient(tx as unknown as Db, organizationId, id);
-    await tx.delete(ingredients).where(eq(ingredients.id, id));
+    const t = tx as unknown as Db;
+    const row = await lockOwnIngredient(t, organizationId, id);
+    const uses = await usesOf(t, organizationId, id);
+    const parts: string[] = [];
+    if (uses.formulas.length) parts.push(`the formula${uses.formulas.length > 1 ? 's' : ''} ${nameList(uses.formulas)} (take it out of ${uses.formulas.length > 1 ? 'each' : 'it'})`);
+    if (uses.specifications.length) parts.push(`the inclusion limits of the specification${uses.specifications.length > 1 ? 's' : ''} ${nameList(uses.specifications)} (remove the limit)`);
+    if (uses.supplyPlans.length) parts.push(`the supply plan${uses.supplyPlans.length > 1 ? 's' : ''} ${nameList(uses.supplyPlans)} (choose another meal entry)`);
+    if (parts.length) {
+      const fieldErrors: Record<string, string[]> = {};
+      if (uses.formulas.length) fieldErrors.formulas = uses.formulas;
+      if (uses.specifications.length) fieldErrors.specifications = uses.specifications;
+      if (uses.supplyPlans.length) fieldErrors.supplyPlans = uses.supplyPlans;
+      throw new HttpError(409, 'in_use', `“${row.name}” was not deleted: it is used in ${parts.join('; and in ')}. Formula versions already kept are not in the way: each keeps its own copy of the values it was solved with.`, fieldErrors);
+    }
+    await t.delete(ingredients).where(eq(ingredients.id, id));
   });
 }
 
@@ -232,18 +277,65 @@ export async function copyReferenceLibrary(db: Db, organizationId: number): Prom
   });
 }
 
-/** Records a dated lab analysis: the values it measured replace the current ones, as fed. */
-export async function addLabAnalysis(db: Db, organizationId: number, id: number, input: LabInput): Promise<void> {
-  await checkNutrientValues(db, input.values);
-  await db.transaction(async (tx) => {
-    const t = tx as unknown as Db;
-    const row = await lockOwnIngredient(t, organizationId, id);
-    const asFed = Object.fromEntries(
-      Object.entries(input.values).map(([k, v]) => [k, input.basis === 'dry_matter' && k !== 'dm' ? Math.round(dryMatterToAsFed(v, input.dryMatterPct) * 1e6) / 1e6 : v]),
-    );
-    asFed.dm = input.dryMatterPct;
-    await insertValueSet(t, id, { kind: 'lab', name: input.laboratory, confidence: 'verified', analysedOn: input.analysedOn, dryMatterPct: input.dryMatterPct }, asFed);
-    await dropEmptyValueSets(t, id);
-    await t.update(ingredients).set({ version: row.version + 1 }).where(eq(ingredients.id, id));
-  });
+/** How sure an analysis value is, in the library's terms: measured and calculated are the lab's; estimates name their method. */
+const confidenceOf = (v: LabValue): 'verified' | 'derived' | 'from_memory' =>
+  v.origin === 'measured' || v.origin === 'calculated' ? 'verified' : v.origin === 'override' ? 'from_memory' : v.method?.confidence === 'from_memory' ? 'from_memory' : 'derived';
+
+const roundValue = (v: number) => Math.round(v * 1e6) / 1e6;
+
+/** A lab analysis ready to go into the library: its values as fed at its own dry matter. */
+export type AnalysisToApply = {
+  /** Names the analysis on each value set it writes, e.g. "Wend Feed Lab, sample OH-0312 (march.csv)". */
+  sourceName: string;
+  analysedOn: string;
+  dryMatterPct: number;
+  values: LabValue[];
+};
+
+/**
+ * The one way a lab analysis (imported or typed in) changes an ingredient of the organization's own
+ * library, inside the caller's transaction:
+ * - value by value, it replaces the library's value of each nutrient it gives; the others stay;
+ * - a value the library holds from a later-dated analysis (or an estimate made from one) is kept, so a
+ *   report filed late never hides a newer one; on the same date the analysis recorded last wins;
+ * - measured and calculated values form one lab value set (the analysis's name, date and dry matter,
+ *   confidence verified); each estimation method's values form their own set naming the method, and
+ *   values entered over an estimate theirs;
+ * - the ingredient's version rises once.
+ * Values are rounded to 1e-6 of their unit. Returns the nutrients applied and those kept.
+ */
+export async function applyLabAnalysis(tx: Db, organizationId: number, id: number, analysis: AnalysisToApply): Promise<{ applied: string[]; kept: KeptValue[] }> {
+  await checkNutrientValues(tx, Object.fromEntries(analysis.values.map((v) => [v.nutrientId, roundValue(v.asFed)])));
+  const row = await lockOwnIngredient(tx, organizationId, id);
+  const held = new Map(
+    (
+      await tx
+        .select({ nutrientId: ingredientNutrientValues.nutrientId, analysedOn: ingredientValueSets.analysedOn })
+        .from(ingredientNutrientValues)
+        .innerJoin(ingredientValueSets, eq(ingredientValueSets.id, ingredientNutrientValues.valueSetId))
+        .where(eq(ingredientNutrientValues.ingredientId, id))
+    ).map((h) => [h.nutrientId, h.analysedOn]),
+  );
+  const applied: LabValue[] = [];
+  const kept: KeptValue[] = [];
+  for (const v of analysis.values) {
+    const since = held.get(v.nutrientId);
+    if (since && since > analysis.analysedOn) kept.push({ nutrientId: v.nutrientId, heldSince: since });
+    else applied.push(v);
+  }
+  const groups = new Map<string, { name: string; kind: 'lab' | 'estimate'; confidence: 'verified' | 'derived' | 'from_memory'; values: Record<string, number> }>();
+  for (const v of applied) {
+    const key = v.origin === 'measured' || v.origin === 'calculated' ? 'lab' : v.origin === 'override' ? 'override' : `estimate:${v.method?.id ?? 'unnamed'}`;
+    const name =
+      key === 'lab' ? analysis.sourceName : v.origin === 'override' ? `Entered over the estimate when importing ${analysis.sourceName}` : `Estimated: ${v.method?.name ?? 'an equation'}, from ${analysis.sourceName}`;
+    const group = groups.get(key) ?? { name: name.slice(0, 300), kind: key === 'lab' ? 'lab' : 'estimate', confidence: confidenceOf(v), values: {} };
+    group.values[v.nutrientId] = roundValue(v.asFed);
+    groups.set(key, group);
+  }
+  for (const g of groups.values()) {
+    await insertValueSet(tx, id, { kind: g.kind, name: g.name, confidence: g.confidence, analysedOn: analysis.analysedOn, dryMatterPct: analysis.dryMatterPct }, g.values);
+  }
+  await dropEmptyValueSets(tx, id);
+  await tx.update(ingredients).set({ version: row.version + 1 }).where(eq(ingredients.id, id));
+  return { applied: applied.map((v) => v.nutrientId), kept };
 }

@@ -1,24 +1,31 @@
-import { and, asc, count, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 
-import { buildLabPreview, type CatalogueNutrient, type ColumnMapping, type LabIssue, type LabPreview, type LabValue } from '../../../src/shared/lab-import';
-import { createIngredientInput, labAnalysisInput, updateIngredientInput } from '../../../src/shared/schemas/ingredients';
+import { buildLabPreview, onDryMatter, PLAUSIBLE_MAX_ON_DM, type CatalogueNutrient, type ColumnMapping, type LabIssue, type LabPreview, type LabValue, type SourceUnit } from '../../../src/shared/lab-import';
+import { createIngredientInput, type labAnalysisInput } from '../../../src/shared/schemas/ingredients';
 import type {
   commitLabImportInput,
   IngredientAnalyses,
+  KeptValue,
+  LabAnalysisEntry,
+  LabAnalysisRecord,
+  LabAnalysisRecorded,
   LabImportResult,
   LabImportSummary,
   LabTargetIngredient,
   previewLabImportInput,
   SavedAnalysis,
 } from '../../../src/shared/schemas/lab-imports';
-import { HttpError, notFound } from '../../http/errors';
+import { convertUnit, dryMatterToAsFed } from '../../../src/shared/units';
+import { badRequest, HttpError, notFound } from '../../http/errors';
 import type { Db } from '../client';
 import { ingredients, labColumnMappings, labImportAnalyses, labImports, nutrients, users } from '../schema';
-import { addLabAnalysis, createIngredient, updateIngredient } from './ingredients';
+import { applyLabAnalysis, createIngredient, getIngredient } from './ingredients';
+import { checkNutrientValues } from './library-shared';
 
 type PreviewInput = z.output<typeof previewLabImportInput>;
 type CommitInput = z.output<typeof commitLabImportInput>;
+type TypedInput = z.output<typeof labAnalysisInput>;
 
 /** A lab's name as a key: lower case, spaces collapsed. */
 export const labKey = (labName: string) => labName.trim().toLowerCase().replace(/\s+/g, ' ');
@@ -52,9 +59,6 @@ function refuseFile(preview: LabPreview): HttpError {
 }
 
 const bad = (path: string, message: string) => new HttpError(400, 'invalid_input', `${path}: ${message}`, { [path]: [message] });
-
-/** How confident an estimate is, in the library's terms. */
-const confidenceOf = (v: LabValue) => (v.origin === 'override' ? 'from_memory' : v.method?.confidence === 'from_memory' ? 'from_memory' : 'derived');
 
 /**
  * Saves the selected samples in one transaction: the raw file with its uploader, each sample as a new
@@ -96,45 +100,35 @@ export async function commitLabImport(db: Db, organizationId: number, userId: st
       })
       .$returningId();
     const saved: SavedAnalysis[] = [];
-    for (const c of chosen) {
-      const measured = Object.fromEntries(c.sample.values.filter((v) => v.origin === 'measured' || v.origin === 'calculated').map((v) => [v.nutrientId, round(v.asFed)]));
-      const sourceName = `${input.labName}, sample ${c.sampleId} (${input.fileName})`.slice(0, 300);
+    for (const [i, c] of chosen.entries()) {
       let ingredientId: number;
-      let ingredientName: string;
       if (c.target.kind === 'new') {
         const create = createIngredientInput.parse({
           name: c.target.name,
           category: c.target.category,
           insect: c.target.insect ?? null,
-          notes: `Created from a lab analysis: ${sourceName}.`,
-          values: measured,
-          source: { kind: 'lab', name: sourceName, confidence: 'verified', analysedOn: c.analysedOn, dryMatterPct: c.dryMatterPct },
+          notes: `Created from a lab analysis: ${sourceNameOf({ entry: 'file', labName: input.labName, sampleId: c.sampleId, fileName: input.fileName })}.`,
         });
         ingredientId = await createIngredient(t, organizationId, userId, create);
-        ingredientName = c.target.name;
       } else {
         ingredientId = c.target.ingredientId;
-        const values = Object.fromEntries(Object.entries(measured).filter(([k]) => k !== 'dm'));
-        await addLabAnalysis(t, organizationId, ingredientId, labAnalysisInput.parse({ laboratory: sourceName.slice(0, 200), analysedOn: c.analysedOn, dryMatterPct: c.dryMatterPct, basis: 'as_fed', values: Object.keys(values).length ? values : { dm: c.dryMatterPct } }));
-        ingredientName = (await t.select({ name: ingredients.name }).from(ingredients).where(eq(ingredients.id, ingredientId)))[0].name;
       }
-      // Each method's estimates form one value set named after it; values entered over an estimate form their own.
-      const groups = new Map<string, { name: string; confidence: 'derived' | 'from_memory'; values: Record<string, number> }>();
-      for (const v of c.sample.values.filter((x) => x.origin === 'estimated' || x.origin === 'override')) {
-        const key = v.origin === 'override' ? 'override' : v.method!.id;
-        const name = v.origin === 'override' ? `Entered over the estimate when importing ${sourceName}` : `Estimated: ${v.method!.name}, from ${sourceName}`;
-        const group = groups.get(key) ?? { name: name.slice(0, 300), confidence: confidenceOf(v), values: {} };
-        group.values[v.nutrientId] = round(v.asFed);
-        groups.set(key, group);
-      }
-      for (const g of groups.values()) {
-        await updateIngredient(t, organizationId, ingredientId, updateIngredientInput.parse({ values: g.values, source: { kind: 'estimate', name: g.name, confidence: g.confidence, analysedOn: c.analysedOn, dryMatterPct: c.dryMatterPct } }));
-      }
-      const [{ id }] = await t
-        .insert(labImportAnalyses)
-        .values({ labImportId: importId, organizationId, ingredientId, createdIngredient: c.target.kind === 'new' ? 1 : 0, sampleId: c.sampleId, sampleName: c.sample.name, analysedOn: c.analysedOn, dryMatterPct: c.dryMatterPct, values: c.sample.values })
-        .$returningId();
-      saved.push({ id, sampleId: c.sampleId, ingredientId, ingredientName, createdIngredient: c.target.kind === 'new', analysedOn: c.analysedOn });
+      const recorded = await recordLabAnalysis(t, organizationId, userId, {
+        ingredientId,
+        entry: 'file',
+        labImportId: importId,
+        fileName: input.fileName,
+        labName: input.labName,
+        sampleId: c.sampleId,
+        sampleName: c.sample.name,
+        analysedOn: c.analysedOn,
+        dryMatterPct: c.dryMatterPct,
+        values: c.sample.values,
+        createdIngredient: c.target.kind === 'new',
+        datePath: `samples[${i}].sampleId`,
+      });
+      const [{ name: ingredientName }] = await t.select({ name: ingredients.name }).from(ingredients).where(eq(ingredients.id, ingredientId));
+      saved.push({ id: recorded.id, sampleId: c.sampleId, ingredientId, ingredientName, createdIngredient: c.target.kind === 'new', analysedOn: c.analysedOn });
     }
     await t
       .insert(labColumnMappings)
@@ -143,8 +137,6 @@ export async function commitLabImport(db: Db, organizationId: number, userId: st
     return { id: importId, analyses: saved };
   });
 }
-
-const round = (v: number) => Math.round(v * 1e6) / 1e6;
 
 async function analysesByImport(db: Db, importIds: number[]): Promise<Map<number, SavedAnalysis[]>> {
   const out = new Map<number, SavedAnalysis[]>();
@@ -156,8 +148,9 @@ async function analysesByImport(db: Db, importIds: number[]): Promise<Map<number
     .where(inArray(labImportAnalyses.labImportId, importIds))
     .orderBy(asc(labImportAnalyses.id));
   for (const { a, name } of rows) {
+    if (a.labImportId === null) continue;
     const list = out.get(a.labImportId) ?? [];
-    list.push({ id: a.id, sampleId: a.sampleId, ingredientId: a.ingredientId, ingredientName: name, createdIngredient: a.createdIngredient === 1, analysedOn: a.analysedOn });
+    list.push({ id: a.id, sampleId: a.sampleId ?? '', ingredientId: a.ingredientId, ingredientName: name, createdIngredient: a.createdIngredient === 1, analysedOn: a.analysedOn });
     out.set(a.labImportId, list);
   }
   return out;
@@ -195,31 +188,163 @@ export async function listTargetIngredients(db: Db, organizationId: number): Pro
   return rows.map((r) => ({ ...r, analyses: byId.get(r.id) ?? 0 }));
 }
 
-/** Every imported analysis of one of the organization's ingredients, oldest first, for comparison. */
+/** Reads history rows as the API shows them; rows saved before typed analyses take lab and uploader from their import. */
+async function analysisRecords(db: Db, where: ReturnType<typeof and>): Promise<LabAnalysisRecord[]> {
+  const rows = await db
+    .select({ a: labImportAnalyses, importLab: labImports.labName, fileName: labImports.fileName, user: users.name, email: users.email })
+    .from(labImportAnalyses)
+    .leftJoin(labImports, eq(labImports.id, labImportAnalyses.labImportId))
+    .leftJoin(users, eq(users.id, sql`COALESCE(${labImportAnalyses.recordedByUserId}, ${labImports.uploadedByUserId})`))
+    .where(where)
+    .orderBy(asc(labImportAnalyses.analysedOn), asc(labImportAnalyses.id));
+  return rows.map(({ a, importLab, fileName, user, email }) => ({
+    id: a.id,
+    entry: a.entry,
+    labImportId: a.labImportId,
+    fileName,
+    labName: a.laboratory ?? importLab ?? '',
+    sampleId: a.sampleId,
+    sampleName: a.sampleName,
+    analysedOn: a.analysedOn,
+    dryMatterPct: a.dryMatterPct,
+    recordedBy: user || email || null,
+    recordedAt: a.createdAt.toISOString(),
+    values: a.values,
+    applied: a.appliedNutrientIds ?? a.values.map((v) => v.nutrientId),
+  }));
+}
+
+/** Every recorded analysis (imported or typed in) of one of the organization's ingredients, oldest first, for comparison. */
 export async function listIngredientAnalyses(db: Db, organizationId: number, ingredientId: number): Promise<IngredientAnalyses> {
   const [ingredient] = await db.select({ id: ingredients.id, name: ingredients.name, category: ingredients.category }).from(ingredients).where(and(eq(ingredients.id, ingredientId), eq(ingredients.organizationId, organizationId)));
   if (!ingredient) throw notFound('ingredient', ingredientId);
-  const rows = await db
-    .select({ a: labImportAnalyses, labName: labImports.labName, fileName: labImports.fileName, user: users.name })
-    .from(labImportAnalyses)
-    .innerJoin(labImports, eq(labImports.id, labImportAnalyses.labImportId))
-    .leftJoin(users, eq(users.id, labImports.uploadedByUserId))
-    .where(and(eq(labImportAnalyses.organizationId, organizationId), eq(labImportAnalyses.ingredientId, ingredientId)))
-    .orderBy(asc(labImportAnalyses.analysedOn), asc(labImportAnalyses.id));
   return {
     ingredient,
     catalogue: await loadCatalogue(db),
-    analyses: rows.map(({ a, labName, fileName, user }) => ({
-      id: a.id,
+    analyses: await analysisRecords(db, and(eq(labImportAnalyses.organizationId, organizationId), eq(labImportAnalyses.ingredientId, ingredientId))),
+  };
+}
+
+/** How a recorded analysis is named on the value sets it writes. */
+function sourceNameOf(a: { entry: LabAnalysisEntry; labName: string; sampleId: string | null; fileName: string | null }): string {
+  const sample = a.sampleId ? `, sample ${a.sampleId}` : '';
+  const how = a.entry === 'file' ? ` (${a.fileName})` : ' (typed in by hand)';
+  return `${a.labName}${sample}${how}`.slice(0, 300);
+}
+
+/** The latest date an analysis may carry: tomorrow in UTC, so a lab a time zone ahead is not refused. */
+const latestAnalysisDate = () => new Date(Date.now() + 86_400_000).toISOString().slice(0, 10);
+
+export type AnalysisToRecord = {
+  ingredientId: number;
+  entry: LabAnalysisEntry;
+  labImportId: number | null;
+  fileName: string | null;
+  labName: string;
+  sampleId: string | null;
+  sampleName: string | null;
+  analysedOn: string;
+  dryMatterPct: number;
+  /** As the reader made them: per kg as fed in catalogue units, each with its dry-matter equivalent and origin. */
+  values: LabValue[];
+  createdIngredient: boolean;
+  /** The request field a refused date is reported under. */
+  datePath: string;
+};
+
+/**
+ * Records one lab analysis of an ingredient, inside the caller's transaction: the same for a sample of
+ * an imported file and for an analysis typed in. Its values go into the library through
+ * `applyLabAnalysis` (the one set of rules for what an analysis replaces), and the analysis is kept in
+ * the history with who recorded it and which of its values were applied.
+ */
+export async function recordLabAnalysis(tx: Db, organizationId: number, userId: string, a: AnalysisToRecord): Promise<{ id: number; applied: string[]; kept: KeptValue[] }> {
+  if (a.analysedOn > latestAnalysisDate()) throw bad(a.datePath, `the date of analysis ${a.analysedOn} is in the future: check it`);
+  const { applied, kept } = await applyLabAnalysis(tx, organizationId, a.ingredientId, { sourceName: sourceNameOf(a), analysedOn: a.analysedOn, dryMatterPct: a.dryMatterPct, values: a.values });
+  const [{ id }] = await tx
+    .insert(labImportAnalyses)
+    .values({
       labImportId: a.labImportId,
+      organizationId,
+      ingredientId: a.ingredientId,
+      entry: a.entry,
+      laboratory: a.labName.slice(0, 200),
+      recordedByUserId: userId,
+      createdIngredient: a.createdIngredient ? 1 : 0,
       sampleId: a.sampleId,
       sampleName: a.sampleName,
       analysedOn: a.analysedOn,
       dryMatterPct: a.dryMatterPct,
-      labName,
-      fileName,
-      uploadedBy: user,
       values: a.values,
-    })),
-  };
+      appliedNutrientIds: applied,
+    })
+    .$returningId();
+  return { id, applied, kept };
+}
+
+/** Highest energy per kg of dry matter any feed reaches (common practice: fats have about 9,400 kcal gross energy per kg). */
+const ENERGY_MAX_KCAL_DM = 9500;
+/** The proximate fractions, which together cannot exceed the dry matter. */
+const PROXIMATE = ['cp', 'ee', 'cf', 'ash', 'starch'];
+const fmt = (n: number) => String(Math.round(n * 100) / 100);
+
+/**
+ * The values of a typed analysis as the file reader makes them: each typed number in its nutrient's
+ * catalogue unit, put as fed at the analysis's dry matter when typed on dry matter (value × DM / 100),
+ * with its dry-matter equivalent, marked measured and keeping what was typed. Refuses, field by field,
+ * what the file reader refuses: a value implausible on dry matter, proximate fractions above 100 % of it.
+ */
+export function typedLabValues(input: TypedInput, catalogue: readonly CatalogueNutrient[]): LabValue[] {
+  const dm = input.dryMatterPct;
+  const values: LabValue[] = [{ nutrientId: 'dm', asFed: dm, dryMatter: 100, unit: '%', origin: 'measured', reported: { value: dm, unit: '%', basis: 'as_fed' } }];
+  const fieldErrors: Record<string, string[]> = {};
+  for (const [nutrientId, typed] of Object.entries(input.values)) {
+    const nutrient = catalogue.find((n) => n.id === nutrientId)!;
+    const asFed = input.basis === 'dry_matter' ? dryMatterToAsFed(typed, dm) : typed;
+    const onDm = onDryMatter(nutrientId, asFed, dm);
+    const rule = PLAUSIBLE_MAX_ON_DM[nutrientId];
+    const what = input.basis === 'dry_matter' ? `${fmt(typed)} ${nutrient.unit} on dry matter` : `${fmt(typed)} ${nutrient.unit} as fed at ${fmt(dm)} % dry matter is ${fmt(onDm)} ${nutrient.unit} of the dry matter`;
+    if (rule && onDm > rule.max) fieldErrors[`values.${nutrientId}`] = [`${what}, above the plausible ${rule.max} % (${rule.why}): check the value, its basis and the dry matter`];
+    else if (!rule && nutrient.unit === '%' && onDm > 100) fieldErrors[`values.${nutrientId}`] = [`${what}, more than the whole dry matter: check the value, its basis and the dry matter`];
+    else if ((nutrient.unit === 'kcal/kg' || nutrient.unit === 'MJ/kg') && convertUnit(onDm, nutrient.unit, 'kcal/kg') > ENERGY_MAX_KCAL_DM) {
+      fieldErrors[`values.${nutrientId}`] = [`${fmt(onDm)} ${nutrient.unit} per kg of dry matter is above any feed (fats have about 9,400 kcal gross energy per kg): check the value and its unit`];
+    }
+    values.push({ nutrientId, asFed, dryMatter: onDm, unit: nutrient.unit, origin: 'measured', reported: { value: typed, unit: nutrient.unit as SourceUnit, basis: input.basis } });
+  }
+  const proximate = values.filter((v) => PROXIMATE.includes(v.nutrientId));
+  const sum = proximate.reduce((s, v) => s + v.dryMatter, 0);
+  if (proximate.length >= 2 && sum > 100 + 1e-9) {
+    const message = `the proximate fractions (${proximate.map((v) => v.nutrientId).join(', ')}) add up to ${fmt(sum)} % of the dry matter, more than 100 %: check their basis and the dry matter`;
+    for (const v of proximate) (fieldErrors[`values.${v.nutrientId}`] ??= []).push(message);
+  }
+  const first = Object.entries(fieldErrors)[0];
+  if (first) throw badRequest(`${first[0]}: ${first[1][0]}`, fieldErrors);
+  return values;
+}
+
+/**
+ * Records an analysis typed in on the ingredient's page: checked like a file's sample, applied and kept
+ * in the history by `recordLabAnalysis`, all in one transaction.
+ */
+export async function recordTypedAnalysis(db: Db, organizationId: number, userId: string, ingredientId: number, input: TypedInput): Promise<LabAnalysisRecorded> {
+  await checkNutrientValues(db, input.values);
+  const values = typedLabValues(input, await loadCatalogue(db));
+  const { id, kept } = await db.transaction(async (tx) =>
+    recordLabAnalysis(tx as unknown as Db, organizationId, userId, {
+      ingredientId,
+      entry: 'typed',
+      labImportId: null,
+      fileName: null,
+      labName: input.laboratory,
+      sampleId: input.sample || null,
+      sampleName: null,
+      analysedOn: input.analysedOn,
+      dryMatterPct: input.dryMatterPct,
+      values,
+      createdIngredient: false,
+      datePath: 'analysedOn',
+    }),
+  );
+  const [analysis] = await analysisRecords(db, and(eq(labImportAnalyses.organizationId, organizationId), eq(labImportAnalyses.id, id)));
+  return { analysis, kept, ingredient: await getIngredient(db, organizationId, ingredientId) };
 }

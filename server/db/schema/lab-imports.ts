@@ -33,24 +33,38 @@ export const labImports = mysqlTable(
 );
 
 /**
- * One sample of an import as saved onto an ingredient: a dated analysis whose values (as fed, each
- * marked measured, calculated, estimated with its method, or entered over an estimate) stay here even
- * after later analyses replace them in the library, so analyses of one ingredient can be compared.
+ * One lab analysis of an ingredient, from an imported file (a sample of the file) or typed in on the
+ * ingredient's page: a dated analysis whose values (as fed, each marked measured, calculated, estimated
+ * with its method, or entered over an estimate) stay here even after later analyses replace them in the
+ * library, so the analyses of one ingredient can be compared and every library value traced.
  */
 export const labImportAnalyses = mysqlTable(
   'lab_import_analyses',
   {
     id: int().autoincrement().primaryKey(),
-    labImportId: int().notNull().references(() => labImports.id, { onDelete: 'cascade' }),
+    /** The file the analysis came in; null for an analysis typed in by hand. */
+    labImportId: int().references(() => labImports.id, { onDelete: 'cascade' }),
     organizationId: int().notNull().references(() => organizations.id, { onDelete: 'cascade' }),
     ingredientId: int().notNull().references(() => ingredients.id, { onDelete: 'cascade' }),
+    /** `file`: a sample of an imported file; `typed`: typed in by hand. */
+    entry: mysqlEnum(['file', 'typed']).notNull().default('file'),
+    /** The laboratory or report. Null on analyses imported before it was kept here: the import's lab name. */
+    laboratory: varchar({ length: 200 }),
+    /** Who recorded it. Null on analyses imported before it was kept here: the import's uploader. */
+    recordedByUserId: varchar({ length: 40 }).references(() => users.id, { onDelete: 'set null' }),
     /** True when this sample created the ingredient. */
     createdIngredient: int().notNull().default(0),
-    sampleId: varchar({ length: 120 }).notNull(),
+    /** The lab's sample or report number; may be missing for a typed analysis. */
+    sampleId: varchar({ length: 120 }),
     sampleName: varchar({ length: 200 }),
     analysedOn: date({ mode: 'string' }).notNull(),
     dryMatterPct: double().notNull(),
     values: json().$type<LabValue[]>().notNull(),
+    /**
+     * The nutrients whose values went into the library when the analysis was recorded (a value held by a
+     * later-dated analysis is kept). Null on analyses saved before this was recorded: all were applied.
+     */
+    appliedNutrientIds: json().$type<string[]>(),
     createdAt: timestamp().notNull().defaultNow(),
   },
   (t) => [index('lab_analyses_ingredient').on(t.organizationId, t.ingredientId, t.analysedOn), index('lab_analyses_import').on(t.labImportId)],

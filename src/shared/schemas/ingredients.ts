@@ -107,14 +107,26 @@ export const updateIngredientInput = z
   });
 export type UpdateIngredientInput = z.input<typeof updateIngredientInput>;
 
-/** POST /api/ingredients/:id/lab-analyses: a dated lab analysis replacing the values it measured. */
+/**
+ * POST /api/ingredients/:id/lab-analyses: a lab analysis typed in by hand. It is recorded in the
+ * ingredient's analysis history like a sample of an imported file, and its values go into the library
+ * by the same rules (see server/db/queries/lab-imports.ts `recordLabAnalysis`).
+ */
 export const labAnalysisInput = z.strictObject({
-  laboratory: z.string().trim().min(1, 'name the laboratory or report').max(200),
+  laboratory: z.string().trim().min(1, 'name the laboratory or report').max(200, 'at most 200 characters'),
+  /** The lab's sample or report number, when it gives one. */
+  sample: z.string().trim().max(120, 'at most 120 characters').nullish(),
   analysedOn: isoDate,
   dryMatterPct: z.number({ message: 'enter the sample’s dry matter, %' }).gt(0, 'dry matter must be above 0 %').max(100, 'dry matter must be at most 100 %'),
-  /** `dry_matter`: values are per kg DM and are stored as fed at `dryMatterPct`. */
-  basis: z.enum(['as_fed', 'dry_matter']).default('as_fed'),
-  values: z.record(z.string().min(1).max(40), z.number({ message: 'must be a number' }).min(0, 'must not be negative').max(100_000)).refine((v) => Object.keys(v).length > 0, 'enter at least one value'),
+  /** `dry_matter`: values are per kg of dry matter and are stored as fed at `dryMatterPct`. */
+  basis: z.enum(['as_fed', 'dry_matter'], { message: 'say whether the values are as fed or on dry matter' }).default('as_fed'),
+  /** Nutrient id → value in the catalogue unit of the nutrient, on `basis`. The dry matter has its own field. */
+  values: z
+    .record(z.string().min(1).max(40), z.number({ message: 'must be a number' }).min(0, 'must not be negative').max(100_000, 'must be at most 100,000'))
+    .superRefine((v, ctx) => {
+      if (Object.keys(v).length === 0) ctx.addIssue({ code: 'custom', message: 'enter at least one value besides the dry matter' });
+      if ('dm' in v) ctx.addIssue({ code: 'custom', path: ['dm'], message: 'give the dry matter in its own field (dryMatterPct), not among the values' });
+    }),
 });
 export type LabAnalysisInput = z.input<typeof labAnalysisInput>;
 

@@ -8,7 +8,7 @@ import { ESTIMATION_CLASSES } from '../lab-import/estimate';
 import type { LabPreview } from '../lab-import/preview';
 import { SOURCE_UNITS, type CatalogueNutrient, type ColumnMapping, type LabValue } from '../lab-import/types';
 import { INGREDIENT_CATEGORIES, SPECIES_FAMILIES, type IngredientCategory } from '../library-terms';
-import { insectDetailsInput } from './ingredients';
+import { insectDetailsInput, type IngredientDetail } from './ingredients';
 import { isoDate } from './library-common';
 
 const mappingEntry = z.strictObject({
@@ -96,20 +96,43 @@ export type LabImportSummary = {
 /** GET /api/lab-imports/ingredients: own ingredients a file can be added to. */
 export type LabTargetIngredient = { id: number; name: string; category: IngredientCategory; analyses: number };
 
-/** GET /api/lab-imports/ingredients/:id/analyses. */
+/** How an analysis reached Troughline: a sample of an imported file, or typed in by hand on the ingredient's page. */
+export type LabAnalysisEntry = 'file' | 'typed';
+
+/** One recorded lab analysis of an ingredient, as the history shows it. */
+export type LabAnalysisRecord = {
+  id: number;
+  entry: LabAnalysisEntry;
+  /** The import it came in; null when typed in. */
+  labImportId: number | null;
+  fileName: string | null;
+  labName: string;
+  sampleId: string | null;
+  sampleName: string | null;
+  analysedOn: string;
+  dryMatterPct: number;
+  /** Who recorded it (typed it in, or uploaded the file); null when that account is gone. */
+  recordedBy: string | null;
+  recordedAt: string;
+  /** Every value of the analysis, per kg as fed and on dry matter, with how it was obtained. */
+  values: LabValue[];
+  /** The nutrients whose values went into the library when the analysis was recorded. */
+  applied: string[];
+};
+
+/** GET /api/lab-imports/ingredients/:id/analyses: oldest first. */
 export type IngredientAnalyses = {
   ingredient: { id: number; name: string; category: IngredientCategory };
   catalogue: CatalogueNutrient[];
-  analyses: {
-    id: number;
-    labImportId: number;
-    sampleId: string;
-    sampleName: string | null;
-    analysedOn: string;
-    dryMatterPct: number;
-    labName: string;
-    fileName: string;
-    uploadedBy: string | null;
-    values: LabValue[];
-  }[];
+  analyses: LabAnalysisRecord[];
+};
+
+/** A value of an analysis left out of the library because a later-dated analysis holds that nutrient. */
+export type KeptValue = { nutrientId: string; heldSince: string };
+
+/** POST /api/ingredients/:id/lab-analyses (201): the recorded analysis and the ingredient as it now is. */
+export type LabAnalysisRecorded = {
+  analysis: LabAnalysisRecord;
+  kept: KeptValue[];
+  ingredient: IngredientDetail;
 };

@@ -1,11 +1,11 @@
-import { and, asc, count, eq, inArray, isNull, like, or, type SQL } from 'drizzle-orm';
+import { and, asc, count, eq, inArray, isNull, like, or, sql, type SQL } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import type { Page } from '../../../src/shared/schemas/library-common';
 import type { createPhaseInput, createSpeciesInput, listSpeciesQuery, Phase, Species } from '../../../src/shared/schemas/specifications';
-import { notFound } from '../../http/errors';
+import { HttpError, notFound } from '../../http/errors';
 import type { Db } from '../client';
-import { phases, species, type PhaseRow, type SpeciesRow } from '../schema';
+import { organizations, phases, species, type PhaseRow, type SpeciesRow } from '../schema';
 import { likePattern } from './library-shared';
 
 const speciesVisible = (organizationId: number) => or(isNull(species.organizationId), eq(species.organizationId, organizationId));
@@ -54,25 +54,54 @@ export async function findVisiblePhase(db: Db, organizationId: number, id: numbe
   return row;
 }
 
+/** Same name, ignoring case and surrounding spaces (names are trimmed on input). */
+const sameName = (column: typeof species.name | typeof phases.name, name: string) => sql`lower(${column}) = ${name.toLowerCase()}`;
+
+/**
+ * Holds the organization's row until the transaction ends, so two people adding the same name at the
+ * same moment are served one after the other and the second hears it is taken.
+ */
+async function lockOrganization(tx: Db, organizationId: number): Promise<void> {
+  await tx.select({ id: organizations.id }).from(organizations).where(eq(organizations.id, organizationId)).for('update');
+}
+
+const duplicate = (message: string) => new HttpError(409, 'duplicate_name', message, { name: [message] });
+
+/** Adds a species of the organization; a name already in the list (reference or own) answers 409. */
 export async function createSpecies(db: Db, organizationId: number, input: z.output<typeof createSpeciesInput>): Promise<number> {
   return db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    await lockOrganization(t, organizationId);
+    const [taken] = await t.select().from(species).where(and(speciesVisible(organizationId), sameName(species.name, input.name)));
+    if (taken) {
+      throw duplicate(`A species named “${taken.name}” is already in the ${taken.organizationId === null ? 'reference list' : 'list of your species'}: choose another name, or add a phase to it.`);
+    }
     const code = input.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'species';
-    const [{ id }] = await tx.insert(species).values({ organizationId, code, name: input.name, family: input.family, sortOrder: 1000 }).$returningId();
+    const [{ id }] = await t.insert(species).values({ organizationId, code, name: input.name, family: input.family, sortOrder: 1000 }).$returningId();
     return id;
   });
 }
 
-/** Adds a phase to a visible species; the phase belongs to the organization even on a reference species. */
+/**
+ * Adds a phase to a visible species; the phase belongs to the organization even on a reference species.
+ * A phase name the species already has (reference or own) answers 409.
+ */
 export async function createPhase(db: Db, organizationId: number, speciesId: number, input: z.output<typeof createPhaseInput>): Promise<number> {
-  await findVisibleSpecies(db, organizationId, speciesId);
+  const owner = await findVisibleSpecies(db, organizationId, speciesId);
   return db.transaction(async (tx) => {
-    const [{ id }] = await tx
+    const t = tx as unknown as Db;
+    await lockOrganization(t, organizationId);
+    const [taken] = await t.select().from(phases).where(and(eq(phases.speciesId, speciesId), phasesVisible(organizationId), sameName(phases.name, input.name)));
+    if (taken) {
+      throw duplicate(`${owner.name} already has a phase named “${taken.name}”${taken.span ? ` (${taken.span})` : ''}: choose another name.`);
+    }
+    const [{ id }] = await t
       .insert(phases)
       .values({
         speciesId,
         organizationId,
         name: input.name,
-        span: input.span ?? null,
+        span: input.span || null,
         ageFromDays: input.ageFromDays ?? null,
         ageToDays: input.ageToDays ?? null,
         bodyWeightFromKg: input.bodyWeightFromKg ?? null,

@@ -69,8 +69,9 @@ export const libraryRules: RuleSet = {
       },
       { method: 'GET', pattern: '/api/species', url: '/api/species', expect: allowOnly(EVERYONE, 200, { outsider: 200 }) },
       { method: 'GET', pattern: '/api/species/:id', url: `/api/species/${f.ownSpecies}`, expect: allowOnly(EVERYONE, 200, { outsider: 404 }) },
-      { method: 'POST', pattern: '/api/species', url: '/api/species', body: { name: 'Quail', family: 'poultry' }, expect: allowOnly(WRITERS, 201, { outsider: 201 }) },
-      { method: 'POST', pattern: '/api/species/:id/phases', url: `/api/species/${f.ownSpecies}/phases`, body: { name: 'Brooding', span: '0–4 weeks' }, expect: allowOnly(WRITERS, 201, { outsider: 404 }) },
+      // Names must be new in the organization's list, so each caller adds its own.
+      { method: 'POST', pattern: '/api/species', url: '/api/species', body: { name: 'Quail', family: 'poultry' }, prepare: async (caller) => ({ body: { name: `Quail ${caller}`, family: 'poultry' } }), expect: allowOnly(WRITERS, 201, { outsider: 201 }) },
+      { method: 'POST', pattern: '/api/species/:id/phases', url: `/api/species/${f.ownSpecies}/phases`, body: { name: 'Brooding', span: '0–4 weeks' }, prepare: async (caller) => ({ body: { name: `Brooding ${caller}`, span: '0–4 weeks' } }), expect: allowOnly(WRITERS, 201, { outsider: 404 }) },
       { method: 'GET', pattern: '/api/specifications', url: '/api/specifications?library=reference', expect: allowOnly(EVERYONE, 200, { outsider: 200 }) },
       { method: 'GET', pattern: '/api/specifications/:id', url: `/api/specifications/${f.ownSpec}`, expect: allowOnly(EVERYONE, 200, { outsider: 404 }) },
       { method: 'POST', pattern: '/api/specifications', url: '/api/specifications', body: f.specBody, expect: allowOnly(WRITERS, 201, { outsider: 201 }) },

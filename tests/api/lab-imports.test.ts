@@ -127,6 +127,137 @@ describe('lab imports API', () => {
       assert.equal(list.body.items[0].fileName, 'orrin-march-2.csv');
     });
 
+    test('an analysis typed on the ingredient’s page joins the same history, marked typed, with who recorded it, and goes into the library like an imported one', async () => {
+      const before = await counts();
+      const { status, body } = await advisor.call('POST', `/api/ingredients/${larvaeId}/lab-analyses`, {
+        laboratory: 'Upper Wend county lab',
+        sample: 'R-88',
+        analysedOn: '2026-03-26',
+        dryMatterPct: 93,
+        basis: 'dry_matter',
+        values: { cp: 45, ca: 2.4 },
+      });
+      assert.equal(status, 201, JSON.stringify(body));
+      assert.equal(body.analysis.entry, 'typed');
+      assert.equal(body.analysis.labImportId, null);
+      assert.equal(body.analysis.recordedBy, 'advisor');
+      assert.deepEqual([...body.analysis.applied].sort(), ['ca', 'cp', 'dm']);
+      assert.deepEqual(body.kept, []);
+      // On dry matter → as fed is arithmetic: 45 % × 93 / 100 = 41.85 %; 2.4 % × 0.93 = 2.232 %.
+      close(body.ingredient.values.cp, 41.85, 1e-9, 'CP as fed');
+      close(body.ingredient.values.ca, 2.232, 1e-9, 'Ca as fed');
+      assert.equal(body.ingredient.values.dm, 93);
+      const cpSet = body.ingredient.valueSets.find((v: { id: number }) => v.id === body.ingredient.nutrientValues.find((n: { nutrientId: string }) => n.nutrientId === 'cp').valueSetId);
+      assert.deepEqual(
+        { kind: cpSet.sourceKind, name: cpSet.sourceName, confidence: cpSet.confidence, analysedOn: cpSet.analysedOn, dm: cpSet.dryMatterPct },
+        { kind: 'lab', name: 'Upper Wend county lab, sample R-88 (typed in by hand)', confidence: 'verified', analysedOn: '2026-03-26', dm: 93 },
+      );
+      const after = await counts();
+      assert.equal(after.analyses, before.analyses + 1);
+      assert.equal(after.imports, before.imports, 'a typed analysis is not a file');
+
+      // Everyone who reads the library sees the history: both files and the typed analysis, oldest first.
+      const history = await nutritionist.call('GET', `/api/lab-imports/ingredients/${larvaeId}/analyses`);
+      assert.equal(history.status, 200);
+      assert.deepEqual(
+        history.body.analyses.map((a: { entry: string; analysedOn: string; labName: string; recordedBy: string; fileName: string | null }) => [a.entry, a.analysedOn, a.labName, a.recordedBy, a.fileName]),
+        [
+          ['file', '2026-03-12', 'Wend Feed Lab', 'advisor', 'orrin-march.csv'],
+          ['file', '2026-03-19', 'Wend Feed Lab', 'nutri', 'orrin-march-2.csv'],
+          ['typed', '2026-03-26', 'Upper Wend county lab', 'advisor', null],
+        ],
+      );
+      const typedCp = history.body.analyses[2].values.find((v: { nutrientId: string }) => v.nutrientId === 'cp');
+      assert.deepEqual(typedCp.reported, { value: 45, unit: '%', basis: 'dry_matter' });
+      close(typedCp.asFed, 41.85, 1e-9, 'history CP as fed');
+      close(typedCp.dryMatter, 45, 1e-9, 'history CP on DM');
+    });
+
+    test('an older analysis, typed or imported, is kept in the history but does not replace what a later-dated one gave', async () => {
+      const typed = await advisor.call('POST', `/api/ingredients/${larvaeId}/lab-analyses`, { laboratory: 'Late report', analysedOn: '2026-03-05', dryMatterPct: 92, values: { cp: 40, ee: 25, na: 0.12 } });
+      assert.equal(typed.status, 201, JSON.stringify(typed.body));
+      assert.deepEqual(typed.body.analysis.applied, ['na']);
+      assert.deepEqual(
+        [...typed.body.kept].sort((a: { nutrientId: string }, b: { nutrientId: string }) => a.nutrientId.localeCompare(b.nutrientId)),
+        [{ nutrientId: 'cp', heldSince: '2026-03-26' }, { nutrientId: 'dm', heldSince: '2026-03-26' }, { nutrientId: 'ee', heldSince: '2026-03-19' }],
+      );
+      close(typed.body.ingredient.values.cp, 41.85, 1e-9, 'CP of the newer analysis stays');
+      const naSet = typed.body.ingredient.valueSets.find((v: { id: number }) => v.id === typed.body.ingredient.nutrientValues.find((n: { nutrientId: string }) => n.nutrientId === 'na').valueSetId);
+      assert.equal(naSet.analysedOn, '2026-03-05');
+      assert.equal(naSet.dryMatterPct, 92, 'a value keeps the dry matter of its own analysis');
+
+      // The same rule for a file: sample OH-0312 again (dated 2026-03-12) fills only what nothing newer holds.
+      const imported = await advisor.call('POST', '/api/lab-imports', {
+        fileName: 'orrin-march-again.csv',
+        text: fixture('sample-per-row.csv'),
+        labName: 'Wend Feed Lab',
+        samples: [{ sampleId: 'OH-0312', target: { kind: 'existing', ingredientId: larvaeId } }],
+      });
+      assert.equal(imported.status, 201, JSON.stringify(imported.body));
+      const history = await advisor.call('GET', `/api/lab-imports/ingredients/${larvaeId}/analyses`);
+      const row = history.body.analyses.find((a: { id: number }) => a.id === imported.body.analyses[0].id);
+      assert.ok(!row.applied.includes('cp') && !row.applied.includes('dm') && !row.applied.includes('ee'), row.applied.join(', '));
+      assert.ok(row.applied.includes('met'), 'methionine was last given by the same date, so the later record wins');
+      const [cp] = await app.database.db.select().from(ingredientNutrientValues).where(and(eq(ingredientNutrientValues.ingredientId, larvaeId), eq(ingredientNutrientValues.nutrientId, 'cp')));
+      close(cp.value, 41.85, 1e-9, 'current CP');
+    });
+
+    test('the same analysis typed in or imported from a file gives the same library values and history', async () => {
+      const text = 'Sample,Dry matter %,Crude protein %,Ash %\nEQ-1,88,12,5\n';
+      const fromFile = await nutritionist.call('POST', '/api/lab-imports', { fileName: 'eq.csv', text, labName: 'Same lab', basis: 'dry_matter', analysedOn: '2026-03-20', samples: [{ sampleId: 'EQ-1', target: { kind: 'new', name: 'Barley, from the file', category: 'cereal_grain' } }] });
+      assert.equal(fromFile.status, 201, JSON.stringify(fromFile.body));
+      const blank = await nutritionist.call('POST', '/api/ingredients', { name: 'Barley, typed in', category: 'cereal_grain' });
+      const typed = await nutritionist.call('POST', `/api/ingredients/${blank.body.id}/lab-analyses`, { laboratory: 'Same lab', sample: 'EQ-1', analysedOn: '2026-03-20', dryMatterPct: 88, basis: 'dry_matter', values: { cp: 12, ash: 5 } });
+      assert.equal(typed.status, 201, JSON.stringify(typed.body));
+      const read = async (id: number) => {
+        const detail = (await nutritionist.call('GET', `/api/ingredients/${id}`)).body;
+        const sets = new Map(detail.valueSets.map((v: { id: number }) => [v.id, v]));
+        return Object.fromEntries(
+          detail.nutrientValues
+            .filter((v: { nutrientId: string }) => ['dm', 'cp', 'ash'].includes(v.nutrientId))
+            .map((v: { nutrientId: string; value: number; valueSetId: number }) => {
+              const set = sets.get(v.valueSetId) as { sourceKind: string; confidence: string; analysedOn: string; dryMatterPct: number };
+              return [v.nutrientId, { value: v.value, kind: set.sourceKind, confidence: set.confidence, analysedOn: set.analysedOn, dm: set.dryMatterPct }];
+            }),
+        );
+      };
+      const a = await read(fromFile.body.analyses[0].ingredientId);
+      const b = await read(blank.body.id);
+      assert.deepEqual(a, b);
+      // On dry matter → as fed is arithmetic: 12 % × 88 / 100 = 10.56 %; 5 % × 0.88 = 4.4 %.
+      close(b.cp.value, 10.56, 1e-9, 'CP as fed');
+      close(b.ash.value, 4.4, 1e-9, 'ash as fed');
+    });
+
+    test('a typed analysis with bad input answers 400 field by field and writes nothing', async () => {
+      const before = await counts();
+      const url = `/api/ingredients/${larvaeId}/lab-analyses`;
+      const shape = await advisor.call('POST', url, { laboratory: ' ', analysedOn: '2026-13-01', dryMatterPct: 0, basis: 'wet', values: { cp: -1 } });
+      assert.equal(shape.status, 400);
+      for (const field of ['laboratory', 'analysedOn', 'dryMatterPct', 'basis', 'values.cp']) assert.ok(shape.body.error.fieldErrors[field], `${field}: ${JSON.stringify(shape.body.error.fieldErrors)}`);
+      const ok = { laboratory: 'County lab', analysedOn: '2026-03-27', dryMatterPct: 90 };
+      const none = await advisor.call('POST', url, { ...ok, values: {} });
+      assert.match(none.body.error.fieldErrors.values[0], /at least one value/);
+      const dmTwice = await advisor.call('POST', url, { ...ok, values: { dm: 90 } });
+      assert.match(dmTwice.body.error.fieldErrors['values.dm'][0], /its own field/);
+      const unknown = await advisor.call('POST', url, { ...ok, values: { protein: 40 } });
+      assert.match(unknown.body.error.fieldErrors['values.protein'][0], /not a nutrient in the catalogue/);
+      // The file reader's plausibility limit on dry matter (90 % CP, common practice): 95 % as fed at 96 % DM is 98.96 % of DM.
+      const implausible = await advisor.call('POST', url, { ...ok, dryMatterPct: 96, values: { cp: 95 } });
+      assert.equal(implausible.status, 400);
+      assert.match(implausible.body.error.fieldErrors['values.cp'][0], /98\.96 % of the dry matter, above the plausible 90 %/);
+      // Proximate fractions cannot exceed the dry matter: (40 + 30 + 25) / 0.9 = 105.56 % of DM (arithmetic).
+      const proximate = await advisor.call('POST', url, { ...ok, values: { cp: 40, ee: 30, ash: 25 } });
+      assert.deepEqual(Object.keys(proximate.body.error.fieldErrors).sort(), ['values.ash', 'values.cp', 'values.ee']);
+      assert.match(proximate.body.error.fieldErrors['values.ee'][0], /105\.56 % of the dry matter/);
+      const future = await advisor.call('POST', url, { ...ok, analysedOn: '2099-01-01', values: { cp: 40 } });
+      assert.match(future.body.error.fieldErrors.analysedOn[0], /in the future/);
+      const reference = await advisor.call('POST', `/api/ingredients/${maizeRef}/lab-analyses`, { ...ok, values: { cp: 8.1 } });
+      assert.equal(reference.status, 403);
+      assert.equal(reference.body.error.code, 'read_only');
+      assert.deepEqual(await counts(), before);
+    });
+
     test('remembers the mapping per lab and applies it to the next file from that lab', async () => {
       const text = 'Sample,DM %,Prot.\nP-1,90,400\n';
       const mapping = { Sample: { target: 'sample_id', unit: '%', basis: 'as_fed' }, 'DM %': { target: 'dm', unit: '%', basis: 'as_fed' }, 'Prot.': { target: 'cp', unit: 'g/kg', basis: 'as_fed' } };

@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import { after, before, describe, test } from 'node:test';
 import { and, count, eq, isNull } from 'drizzle-orm';
 
-import { ingredientPrices, ingredients, species, specifications } from '../../server/db/schema';
+import { ingredientNutrientValues, ingredientPrices, ingredients, ingredientValueSets, labImportAnalyses, species, specifications } from '../../server/db/schema';
 import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
 import { createOrganization, createUser, signedInClient, type Client } from '../helpers/accounts';
 import { startTestApp, type TestApp } from '../helpers/app';
@@ -132,6 +132,85 @@ describe('library API', () => {
       assert.ok(Math.abs(lab.body.ingredient.values.cp - 46.8) < 1e-9);
       assert.equal(lab.body.ingredient.values.dm, 90);
       assert.equal((await advisor.call('PATCH', `/api/ingredients/${copy.body.id}`, { name: 'x' })).status, 403, 'advisors import lab values, they do not edit the library');
+    });
+  });
+
+  describe('DELETE /api/ingredients/:id', () => {
+    const rapeseed = { name: 'Rapeseed cake, lot 3', category: 'oilseed_meal', values: { cp: 34 }, source: { kind: 'estimate', name: 'Supplier sheet', dryMatterPct: 89 } };
+
+    test('refused while a formula uses it, naming the formula; once taken out it goes, and the kept version keeps its values', async () => {
+      const spec = await nutritionist.call('POST', `/api/specifications/${ref.starter}/copy`, { name: 'Starter for the delete test' });
+      const maize = (await nutritionist.call('POST', `/api/ingredients/${ref.maize}/copy`, { name: 'Maize D' })).body.id;
+      const sbm = (await nutritionist.call('POST', `/api/ingredients/${ref['soybean-meal-48']}/copy`, { name: 'SBM D' })).body.id;
+      const cake = await nutritionist.call('POST', '/api/ingredients', rapeseed);
+      assert.equal(cake.status, 201);
+      const formula = await nutritionist.call('POST', '/api/formulas', {
+        name: 'Starter with rapeseed cake',
+        specificationId: spec.body.id,
+        ingredients: [{ ingredientId: maize, pricePerKg: 0.2 }, { ingredientId: sbm, pricePerKg: 0.45 }, { ingredientId: cake.body.id, pricePerKg: 0.3 }],
+      });
+      assert.equal(formula.status, 201, JSON.stringify(formula.body));
+      const version = await nutritionist.call('POST', `/api/formulas/${formula.body.id}/versions`, {});
+      assert.equal(version.status, 201, JSON.stringify(version.body));
+
+      const refused = await nutritionist.call('DELETE', `/api/ingredients/${cake.body.id}`);
+      assert.equal(refused.status, 409);
+      assert.equal(refused.body.error.code, 'in_use');
+      assert.match(refused.body.error.message, /“Rapeseed cake, lot 3” was not deleted: it is used in the formula “Starter with rapeseed cake”/);
+      assert.deepEqual(refused.body.error.fieldErrors.formulas, ['Starter with rapeseed cake']);
+      assert.equal((await nutritionist.call('GET', `/api/ingredients/${cake.body.id}`)).status, 200, 'nothing deleted');
+
+      const detail = (await nutritionist.call('GET', `/api/formulas/${formula.body.id}`)).body;
+      const inputs = { ...detail.inputs, ingredients: detail.inputs.ingredients.filter((i: { ingredientId: number }) => i.ingredientId !== cake.body.id) };
+      assert.equal((await nutritionist.call('PUT', `/api/formulas/${formula.body.id}`, { inputs })).status, 200);
+      const deleted = await nutritionist.call('DELETE', `/api/ingredients/${cake.body.id}`);
+      assert.equal(deleted.status, 204, JSON.stringify(deleted.body));
+      assert.equal((await nutritionist.call('GET', `/api/ingredients/${cake.body.id}`)).status, 404);
+      const db = app.database.db;
+      assert.equal((await db.select({ n: count() }).from(ingredientNutrientValues).where(eq(ingredientNutrientValues.ingredientId, cake.body.id)))[0].n, 0);
+      assert.equal((await db.select({ n: count() }).from(ingredientValueSets).where(eq(ingredientValueSets.ingredientId, cake.body.id)))[0].n, 0);
+
+      // The kept version still reads, with the deleted ingredient's name and values as solved.
+      const kept = await nutritionist.call('GET', `/api/formulas/${formula.body.id}/versions/${version.body.id}`);
+      assert.equal(kept.status, 200);
+      const used = kept.body.snapshot.ingredients.find((u: { ingredientId: number }) => u.ingredientId === cake.body.id);
+      assert.equal(used.name, 'Rapeseed cake, lot 3');
+      assert.equal(used.values.cp, 34);
+      assert.equal(used.pricePerKg, 0.3);
+      assert.equal((await nutritionist.call('GET', `/api/formulas/${formula.body.id}`)).status, 200);
+    });
+
+    test('refused while a specification limits it or a supply plan takes its values, naming each; nothing is changed', async () => {
+      const meal = await nutritionist.call('POST', '/api/ingredients', {
+        name: 'Larvae meal, vegetable waste',
+        category: 'insect_meal',
+        insect: { species: 'hermetia_illucens', processing: 'full_fat', substrate: 'Vegetable waste', substrateOrigin: 'plant', substrateAnimals: [] },
+        values: { cp: 40 },
+        source: { kind: 'estimate', name: 'Supplier sheet', dryMatterPct: 92 },
+      });
+      assert.equal(meal.status, 201, JSON.stringify(meal.body));
+      const spec = await nutritionist.call('POST', '/api/specifications', { speciesId: ref['grow-finish-pig'], name: 'Grower with larvae meal', source: 'Own', bounds: [{ nutrientId: 'sid_lys', min: 0.98 }], caps: [{ scope: 'ingredient', ingredientId: meal.body.id, maxPct: 5, source: 'Own trial' }] });
+      assert.equal(spec.status, 201, JSON.stringify(spec.body));
+      const plan = await nutritionist.call('POST', '/api/supply-plans', { name: 'Vegetable waste rearing', streams: [{ name: 'Market waste', substrate: 'fruit_vegetable_waste', tonnesPerWeek: 2 }], mealIngredientId: meal.body.id });
+      assert.equal(plan.status, 201, JSON.stringify(plan.body));
+
+      const refused = await nutritionist.call('DELETE', `/api/ingredients/${meal.body.id}`);
+      assert.equal(refused.status, 409);
+      assert.match(refused.body.error.message, /inclusion limits of the specification “Grower with larvae meal”/);
+      assert.match(refused.body.error.message, /supply plan “Vegetable waste rearing”/);
+      assert.deepEqual(refused.body.error.fieldErrors, { specifications: ['Grower with larvae meal'], supplyPlans: ['Vegetable waste rearing'] });
+      const after = await nutritionist.call('GET', `/api/specifications/${spec.body.id}`);
+      assert.equal(after.body.caps.length, 1, 'the limit is still there');
+      assert.equal((await nutritionist.call('GET', `/api/supply-plans/${plan.body.id}`)).body.mealIngredient.id, meal.body.id);
+    });
+
+    test('takes its analysis history with it; another organization’s ingredient answers 404', async () => {
+      const cake = await nutritionist.call('POST', '/api/ingredients', { ...rapeseed, name: 'Rapeseed cake, lot 4' });
+      const lab = await advisor.call('POST', `/api/ingredients/${cake.body.id}/lab-analyses`, { laboratory: 'County lab', analysedOn: '2026-03-12', dryMatterPct: 89, values: { cp: 33.1 } });
+      assert.equal(lab.status, 201);
+      assert.equal((await outsider.call('DELETE', `/api/ingredients/${cake.body.id}`)).status, 404);
+      assert.equal((await nutritionist.call('DELETE', `/api/ingredients/${cake.body.id}`)).status, 204);
+      assert.equal((await app.database.db.select({ n: count() }).from(labImportAnalyses).where(eq(labImportAnalyses.ingredientId, cake.body.id)))[0].n, 0);
     });
   });
 

@@ -2,7 +2,15 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 
 import type { LibraryName } from '@/shared/library-terms';
 import type { Page } from '@/shared/schemas/library-common';
-import type { Species, SpecificationDetail, SpecificationSummary, UpdateSpecificationInput } from '@/shared/schemas/specifications';
+import type {
+  CreatePhaseInput,
+  CreateSpeciesInput,
+  CreateSpecificationInput,
+  Species,
+  SpecificationDetail,
+  SpecificationSummary,
+  UpdateSpecificationInput,
+} from '@/shared/schemas/specifications';
 
 import { apiClient } from './client';
 import { STALE } from './stale';
@@ -12,6 +20,16 @@ export const speciesKeys = { all: ['species'] as const, list: () => [...speciesK
 export const speciesQueryOptions = () =>
   queryOptions({ queryKey: speciesKeys.list(), queryFn: ({ signal }) => apiClient.get<Page<Species>>('/api/species?pageSize=200', signal), staleTime: STALE.MINUTES.FIVE });
 export const useSpeciesQuery = () => useQuery(speciesQueryOptions());
+
+/** Adds a species or a phase; both answer the species with its phases, which refreshes the list. */
+function useSpeciesMutation<TInput>(fn: (input: TInput) => Promise<Species>) {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: fn, onSuccess: () => queryClient.invalidateQueries({ queryKey: speciesKeys.all }) });
+}
+
+export const useSpeciesCreateMutation = () => useSpeciesMutation((input: CreateSpeciesInput) => apiClient.post<Species>('/api/species', input));
+export const usePhaseCreateMutation = () =>
+  useSpeciesMutation(({ speciesId, ...input }: CreatePhaseInput & { speciesId: number }) => apiClient.post<Species>(`/api/species/${speciesId}/phases`, input));
 
 export type SpecificationListParams = { library: LibraryName; speciesId?: number };
 
@@ -45,6 +63,7 @@ function useSpecificationMutation<TInput>(fn: (input: TInput) => Promise<Specifi
   });
 }
 
+export const useSpecificationCreateMutation = () => useSpecificationMutation((input: CreateSpecificationInput) => apiClient.post<SpecificationDetail>('/api/specifications', input));
 export const useSpecificationCopyMutation = () => useSpecificationMutation((id: number) => apiClient.post<SpecificationDetail>(`/api/specifications/${id}/copy`, {}));
 export const useSpecificationUpdateMutation = (id: number) =>
   useSpecificationMutation((input: UpdateSpecificationInput) => apiClient.put<SpecificationDetail>(`/api/specifications/${id}`, input));

@@ -7,9 +7,10 @@ import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
 import { WEB_DIST } from '../../server/index';
 import { createOrganization, createUser, FIXTURE_PASSWORD, signedInClient } from '../helpers/accounts';
 import { startTestApp, type TestApp } from '../helpers/app';
-import { launchBrowser, PHONE, signInThroughForm, TEST_OUTPUT } from '../helpers/browser';
+import { launchBrowser, PHONE, signInThroughForm, TEST_OUTPUT, WIDE } from '../helpers/browser';
 
 const EMAIL = 'nutritionist@hallowmere.example';
+const OPERATOR = 'operator@hallowmere.example';
 const visible = (page: Page, testId: string) => page.locator(`[data-testid="${testId}"]:visible`);
 
 describe('adjusting a copied specification', () => {
@@ -21,6 +22,7 @@ describe('adjusting a copied specification', () => {
     await seedDemoData(t.database.db, [REFERENCE_LIBRARY_STEP]);
     const org = await createOrganization(t.database.db, 'Hallowmere Mill');
     await createUser(t.database.db, { email: EMAIL, organizationId: org.id, role: 'nutritionist' });
+    await createUser(t.database.db, { email: OPERATOR, organizationId: org.id, role: 'mill_operator' });
     browser = await launchBrowser();
   });
   after(async () => {
@@ -59,5 +61,86 @@ describe('adjusting a copied specification', () => {
     assert.equal(body.ratios[0].min, 2);
     assert.equal(body.caps[0].maxPct, 8);
     await page.close();
+  });
+  test('on a phone: add a species and a phase, hear that a taken name is taken, then start a specification for the phase', async () => {
+    const page = await browser.newPage({ viewport: PHONE });
+    await signInThroughForm(page, t.server.baseUrl, EMAIL, FIXTURE_PASSWORD);
+    await page.goto(`${t.server.baseUrl}/requirements`);
+    await visible(page, 'species-open').click();
+    await visible(page, 'screen-species').waitFor();
+
+    // Nothing typed: each field says what it needs.
+    await visible(page, 'species-submit').click();
+    await page.locator('text=Name the species, e.g. Japanese quail.').first().waitFor();
+    await visible(page, 'species-family-error').waitFor();
+
+    // A name someone else took after the page was opened: the server's answer shows under the name.
+    const api = await signedInClient(t.server.baseUrl, EMAIL);
+    assert.equal((await api.call('POST', '/api/species', { name: 'Guinea fowl', family: 'poultry' })).status, 201);
+    await visible(page, 'species-name').fill('guinea fowl');
+    await visible(page, 'species-family-poultry').click();
+    await visible(page, 'species-submit').click();
+    await page.locator('[data-testid="species-name-error"]:visible', { hasText: 'is already in the list of your species' }).waitFor();
+
+    await visible(page, 'species-name').fill('Japanese quail');
+    await visible(page, 'species-submit').click();
+    await visible(page, 'species-added').waitFor();
+
+    // The phase form now points at the new species; a band that ends before it starts is refused.
+    await visible(page, 'phase-name').fill('Starter');
+    await visible(page, 'phase-from').fill('3');
+    await visible(page, 'phase-to').fill('0');
+    await visible(page, 'phase-submit').click();
+    await page.locator('text=The phase must end after it starts.').first().waitFor();
+    await visible(page, 'phase-from').fill('0');
+    await visible(page, 'phase-to').fill('3');
+    await visible(page, 'phase-submit').click();
+    await visible(page, 'phase-added').waitFor();
+    await page.locator('[data-testid="species-list"]:visible', { hasText: '0–3 weeks' }).waitFor();
+
+    // The same phase name again, in another case: refused before anything is sent.
+    await visible(page, 'phase-name').fill('STARTER');
+    await visible(page, 'phase-from').fill('3');
+    await visible(page, 'phase-submit').click();
+    await page.locator('text=This species already has a phase with this name: choose another name.').first().waitFor();
+    await page.screenshot({ path: join(TEST_OUTPUT, 'requirements-species-phone.png'), fullPage: true });
+
+    // A specification of our own for the new phase, with its first bound.
+    await visible(page, 'spec-start-source').fill('Our nutritionist, from trial results');
+    await visible(page, 'spec-start-submit').click();
+    await visible(page, 'screen-specification').waitFor();
+    await visible(page, 'spec-edit').click();
+    await visible(page, 'spec-add-search').fill('crude protein');
+    await visible(page, 'spec-add-cp').click();
+    await visible(page, 'bound-min-cp').fill('24');
+    await visible(page, 'spec-save').click();
+    await visible(page, 'bound-cp').waitFor();
+
+    const id = Number(new URL(page.url()).pathname.split('/').pop());
+    const { body } = await api.call('GET', `/api/specifications/${id}`);
+    assert.deepEqual([body.species.name, body.phase.name, body.phase.span, body.library], ['Japanese quail', 'Starter', '0–3 weeks', 'own']);
+    assert.deepEqual(body.bounds.map((b: { nutrientId: string; min: number }) => [b.nutrientId, b.min]), [['cp', 24]]);
+    const quail = (await api.call('GET', '/api/species')).body.items.find((s: { name: string }) => s.name === 'Japanese quail');
+    assert.deepEqual([quail.phases[0].ageFromDays, quail.phases[0].ageToDays], [0, 21]);
+    await page.close();
+  });
+
+  test('at 1280 px the forms and the list of species sit side by side; a role that cannot write sees the list only', async () => {
+    const page = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(page, t.server.baseUrl, EMAIL, FIXTURE_PASSWORD);
+    await page.goto(`${t.server.baseUrl}/requirements/species`);
+    const form = await visible(page, 'species-form').boundingBox();
+    const list = await visible(page, 'species-list').boundingBox();
+    assert.ok(form && list && list.x > form.x + form.width - 1, 'the list is to the right of the forms');
+    await page.screenshot({ path: join(TEST_OUTPUT, 'requirements-species-wide.png'), fullPage: true });
+    await page.close();
+
+    const reader = await browser.newPage({ viewport: PHONE });
+    await signInThroughForm(reader, t.server.baseUrl, OPERATOR, FIXTURE_PASSWORD);
+    await reader.goto(`${t.server.baseUrl}/requirements/species`);
+    await visible(reader, 'species-list').waitFor();
+    assert.equal(await visible(reader, 'species-form').count(), 0);
+    assert.equal(await visible(reader, 'phase-form').count(), 0);
+    await reader.close();
   });
 });

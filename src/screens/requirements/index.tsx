@@ -1,10 +1,12 @@
 import { useState } from 'react';
 import { Pressable, StyleSheet, useWindowDimensions, View } from 'react-native';
-import { Link } from 'expo-router';
+import { Link, useRouter } from 'expo-router';
 
 import { useSpeciesQuery, useSpecificationsQuery } from '@/api/requirements';
+import { useActiveMembership } from '@/api/session';
 import { ErrorState } from '@/components/error-state';
 import { Screen } from '@/components/screen';
+import { Button } from '@/components/ui/button';
 import { ChoiceChips } from '@/components/ui/choice-chips';
 import { AppText } from '@/components/ui/text';
 import type { LibraryName } from '@/shared/library-terms';
@@ -19,6 +21,8 @@ const LIBRARY_OPTIONS = [
 export function RequirementsScreen() {
   const { width } = useWindowDimensions();
   const wide = width >= WIDE_MIN_WIDTH;
+  const router = useRouter();
+  const { can } = useActiveMembership();
   const [library, setLibrary] = useState<LibraryName>('reference');
   const [speciesId, setSpeciesId] = useState<string>('all');
   const species = useSpeciesQuery();
@@ -27,6 +31,12 @@ export function RequirementsScreen() {
 
   return (
     <Screen title="Requirements" lead="Nutrient specifications per species and production phase." testID="screen-requirements">
+      <Button
+        label={can('requirements:write') ? 'Species and phases: add your own' : 'Species and phases'}
+        tone="quiet"
+        onPress={() => router.push('/requirements/species')}
+        testID="species-open"
+      />
       <ChoiceChips label="Specifications" options={LIBRARY_OPTIONS} value={library} onChange={setLibrary} testID="spec-library" />
       <ChoiceChips label="Species" options={speciesOptions} value={speciesId} onChange={setSpeciesId} testID="spec-species" />
       {species.isError ? <ErrorState error={species.error} onRetry={() => species.refetch()} /> : null}

@@ -104,6 +104,7 @@ export const createSpeciesInput = z.strictObject({
   name: z.string().trim().min(1, 'name the species').max(120),
   family: z.enum(SPECIES_FAMILIES, { message: 'choose poultry or pigs' }),
 });
+export type CreateSpeciesInput = z.input<typeof createSpeciesInput>;
 
 export const createPhaseInput = z
   .strictObject({
@@ -118,6 +119,8 @@ export const createPhaseInput = z
     if (p.ageFromDays != null && p.ageToDays != null && p.ageFromDays > p.ageToDays) ctx.addIssue({ code: 'custom', path: ['ageToDays'], message: 'the phase must end after it starts' });
     if (p.bodyWeightFromKg != null && p.bodyWeightToKg != null && p.bodyWeightFromKg > p.bodyWeightToKg) ctx.addIssue({ code: 'custom', path: ['bodyWeightToKg'], message: 'the upper weight must be above the lower' });
   });
+
+export type CreatePhaseInput = z.input<typeof createPhaseInput>;
 
 export const listSpeciesQuery = z.object({ ...pageQuery, pageSize: pageQuery.pageSize.default(200), family: z.enum(SPECIES_FAMILIES).optional() });
 

@@ -1,0 +1,5 @@
+import { SpeciesScreen } from '@/screens/requirements/species';
+
+export default function SpeciesRoute() {
+  return <SpeciesScreen />;
+}

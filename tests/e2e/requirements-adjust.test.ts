@@ -85,6 +85,7 @@ describe('adjusting a copied specification', () => {
     await visible(page, 'species-name').fill('Japanese quail');
     await visible(page, 'species-submit').click();
     await visible(page, 'species-added').waitFor();
+    await page.screenshot({ path: join(TEST_OUTPUT, 'requirements-species-added-phone.png') });
 
     // The phase form now points at the new species; a band that ends before it starts is refused.
     await visible(page, 'phase-name').fill('Starter');

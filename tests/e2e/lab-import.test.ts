@@ -4,8 +4,10 @@ import { fileURLToPath } from 'node:url';
 import { after, before, describe, test } from 'node:test';
 import type { Browser, Page } from 'playwright-core';
 
+import { createIngredient } from '../../server/db/queries/ingredients';
 import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
 import { WEB_DIST } from '../../server/index';
+import { createIngredientInput } from '../../src/shared/schemas/ingredients';
 import { createOrganization, createUser, FIXTURE_PASSWORD } from '../helpers/accounts';
 import { startTestApp, type TestApp } from '../helpers/app';
 import { launchBrowser, PHONE, signInThroughForm, TEST_OUTPUT } from '../helpers/browser';
@@ -16,12 +18,20 @@ const visible = (page: Page, testId: string) => page.locator(`[data-testid="${te
 describe('lab import in the browser', () => {
   let t: TestApp;
   let browser: Browser;
+  let meal: number;
 
   before(async () => {
     t = await startTestApp('e2e_lab_import', { webDist: WEB_DIST });
     await seedDemoData(t.database.db, [REFERENCE_LIBRARY_STEP]);
     const org = await createOrganization(t.database.db, 'Hollow Larvae Farm', 'farm');
-    await createUser(t.database.db, { email: 'advisor@hollow.example', name: 'Advisor Person', organizationId: org.id, role: 'advisor' });
+    const advisor = await createUser(t.database.db, { email: 'advisor@hollow.example', name: 'Advisor Person', organizationId: org.id, role: 'advisor' });
+    meal = await createIngredient(t.database.db, org.id, advisor.id, createIngredientInput.parse({
+      name: 'Larvae meal, market waste',
+      category: 'insect_meal',
+      insect: { species: 'hermetia_illucens', processing: 'full_fat', substrate: 'market vegetable waste', substrateOrigin: 'plant', substrateAnimals: [] },
+      values: { cp: 38 },
+      source: { kind: 'estimate', name: 'Supplier sheet', dryMatterPct: 92 },
+    }));
     browser = await launchBrowser();
   });
   after(async () => {
@@ -77,6 +87,40 @@ describe('lab import in the browser', () => {
     await visible(page, 'history-basis-dry_matter').click();
     assert.match(await visible(page, 'history-row-cp').innerText(), /45\.24 %/);
     await page.screenshot({ path: join(TEST_OUTPUT, 'lab-analyses-history-phone.png'), fullPage: true });
+    await page.close();
+  });
+
+  test('at 375 px: an analysis typed on the ingredient’s page shows in its analysis history, marked typed in, with the values', async () => {
+    const page = await browser.newPage({ viewport: PHONE });
+    await signInThroughForm(page, t.server.baseUrl, 'advisor@hollow.example', FIXTURE_PASSWORD);
+    await page.goto(`${t.server.baseUrl}/library/${meal}`);
+    await visible(page, 'screen-ingredient').waitFor();
+    await visible(page, 'analysis-history-empty').waitFor();
+    await visible(page, 'lab-name').fill('Upper Wend county lab');
+    await visible(page, 'lab-sample').fill('R-88');
+    await visible(page, 'lab-date').fill('2026-03-26');
+    await visible(page, 'lab-dm').fill('93');
+    await visible(page, 'lab-basis-dry_matter').click();
+    await visible(page, 'lab-value-cp').fill('45');
+    await visible(page, 'lab-value-ca').fill('2,4');
+    await visible(page, 'lab-save').click();
+    await page.locator('[data-testid="lab-message"]:visible', { hasText: 'recorded in the history' }).waitFor();
+    assert.match(await visible(page, 'lab-message').innerText(), /Now in the library: dry matter, crude protein, calcium/);
+
+    const entry = page.locator('[data-testid^="analysis-"][data-testid$="-entry"]:visible');
+    await entry.waitFor();
+    assert.match(await entry.innerText(), /Typed in by hand by Advisor Person on \d{4}-\d{2}-\d{2} · sample R-88/);
+    const history = visible(page, 'analysis-history');
+    assert.match(await history.innerText(), /2026-03-26 · Upper Wend county lab/);
+    // On dry matter → as fed is arithmetic: 45 % × 93 / 100 = 41.85 % as fed.
+    const cp = page.locator('[data-testid^="analysis-"][data-testid$="-cp"]:visible');
+    assert.match(await cp.innerText(), /41\.85\s*% as fed/);
+    assert.match(await visible(page, 'value-cp-figure').innerText(), /^41\.85\s/);
+    await visible(page, 'basis-dry_matter').click();
+    assert.match(await cp.innerText(), /45\.00\s*% of DM/);
+    const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
+    assert.ok(scrollWidth <= PHONE.width, `page is ${scrollWidth} px wide at ${PHONE.width} px`);
+    await history.screenshot({ path: join(TEST_OUTPUT, 'ingredient-analysis-history-phone.png') });
     await page.close();
   });
 

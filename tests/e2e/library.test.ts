@@ -3,9 +3,17 @@ import { join } from 'node:path';
 import { after, before, describe, test } from 'node:test';
 import type { Browser, Page } from 'playwright-core';
 
+import { and, eq, isNull } from 'drizzle-orm';
+
+import { createFormula } from '../../server/db/queries/formulas';
+import { createIngredient } from '../../server/db/queries/ingredients';
+import { copySpecification } from '../../server/db/queries/specifications';
 import { copyIngredientsToOrganization } from '../../server/db/reference-data/seed-library';
+import { ingredients, specifications } from '../../server/db/schema';
 import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
 import { WEB_DIST } from '../../server/index';
+import { createFormulaInput } from '../../src/shared/schemas/formulas';
+import { createIngredientInput } from '../../src/shared/schemas/ingredients';
 import { createOrganization, createUser, FIXTURE_PASSWORD } from '../helpers/accounts';
 import { startTestApp, type TestApp } from '../helpers/app';
 import { launchBrowser, PHONE, signInThroughForm, TEST_OUTPUT, WIDE } from '../helpers/browser';
@@ -16,14 +24,26 @@ const EMAIL = 'nutritionist@lowfield.example';
 describe('library and requirements in the browser', () => {
   let t: TestApp;
   let browser: Browser;
+  let usedMaize: number;
+  let unusedCake: number;
 
   before(async () => {
     t = await startTestApp('e2e_library', { webDist: WEB_DIST });
     const db = t.database.db;
     await seedDemoData(db, [REFERENCE_LIBRARY_STEP]);
     const org = await createOrganization(db, 'Lowfield Mill');
-    await createUser(db, { email: EMAIL, organizationId: org.id, role: 'nutritionist' });
+    const user = await createUser(db, { email: EMAIL, organizationId: org.id, role: 'nutritionist' });
     await db.transaction((tx) => copyIngredientsToOrganization(tx as unknown as typeof db, org.id));
+    // A formula that uses the mill's maize, so deleting the maize is refused; the rapeseed cake nothing uses.
+    const own = async (code: string) => {
+      const [ref] = await db.select().from(ingredients).where(and(isNull(ingredients.organizationId), eq(ingredients.code, code)));
+      return (await db.select().from(ingredients).where(and(eq(ingredients.organizationId, org.id), eq(ingredients.copiedFromId, ref.id))))[0].id;
+    };
+    usedMaize = await own('maize');
+    const [starter] = await db.select().from(specifications).where(and(isNull(specifications.organizationId), eq(specifications.code, 'nrc1994-broiler-starter')));
+    const spec = await copySpecification(db, org.id, starter.id, 'Lowfield starter');
+    await createFormula(db, org.id, user.id, createFormulaInput.parse({ name: 'Lowfield broiler starter', specificationId: spec, ingredients: [{ ingredientId: usedMaize }, { ingredientId: await own('soybean-meal-48') }] }));
+    unusedCake = await createIngredient(db, org.id, user.id, createIngredientInput.parse({ name: 'Rapeseed cake, old lot', category: 'oilseed_meal', values: { cp: 34 }, source: { kind: 'estimate', name: 'Supplier sheet', dryMatterPct: 87 } }));
     browser = await launchBrowser();
   });
   after(async () => {
@@ -121,6 +141,41 @@ describe('library and requirements in the browser', () => {
     assert.match(await visible(page, 'value-cp-figure').innerText(), /^10\.56\s/);
     assert.match(await visible(page, 'value-sources').innerText(), /County feed lab, report 31/);
     await page.screenshot({ path: join(TEST_OUTPUT, 'library-new-ingredient-wide.png'), fullPage: true });
+    await page.close();
+  });
+
+  test('at 1280 px: deleting asks to confirm, names the formula that still uses an ingredient, and returns to the library', async () => {
+    const page = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(page, t.server.baseUrl, EMAIL, FIXTURE_PASSWORD);
+
+    await page.goto(`${t.server.baseUrl}/library/${usedMaize}`);
+    await visible(page, 'screen-ingredient').waitFor();
+    await visible(page, 'ingredient-delete').click();
+    await visible(page, 'delete-confirm').waitFor();
+    await visible(page, 'delete-confirm-yes').click();
+    await visible(page, 'delete-refused').waitFor();
+    assert.match(await visible(page, 'delete-refused').innerText(), /was not deleted: it is used in the formula “Lowfield broiler starter”[\s\S]*Formula: Lowfield broiler starter/);
+    await page.screenshot({ path: join(TEST_OUTPUT, 'library-delete-refused-wide.png'), fullPage: true });
+    await visible(page, 'delete-confirm-no').click();
+    await visible(page, 'delete-confirm').waitFor({ state: 'detached' });
+    assert.equal(await visible(page, 'screen-ingredient').count(), 1, 'still on the ingredient');
+
+    await page.goto(`${t.server.baseUrl}/library`);
+    await visible(page, 'ingredient-table').waitFor();
+    await visible(page, 'ingredient-search').fill('rapeseed cake, old');
+    await visible(page, `ingredient-row-${unusedCake}`).click();
+    await visible(page, 'screen-ingredient').waitFor();
+    // The first step only asks; keeping it changes nothing.
+    await visible(page, 'ingredient-delete').click();
+    assert.match(await visible(page, 'delete-confirm').innerText(), /Delete “Rapeseed cake, old lot”\?[\s\S]*kept are not changed/);
+    await visible(page, 'delete-confirm-no').click();
+    await visible(page, 'ingredient-delete').click();
+    await visible(page, 'delete-confirm-yes').click();
+    await visible(page, 'screen-library').waitFor();
+    await visible(page, 'ingredient-table').waitFor();
+    await page.waitForFunction((id) => !document.querySelector(`[data-testid="ingredient-row-${id}"]`), unusedCake);
+    const gone = await fetch(`${t.server.baseUrl}/api/ingredients/${unusedCake}`, { headers: { cookie: (await page.context().cookies()).map((c) => `${c.name}=${c.value}`).join('; ') } });
+    assert.equal(gone.status, 404);
     await page.close();
   });
 });

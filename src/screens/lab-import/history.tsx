@@ -14,7 +14,10 @@ import { colors, space } from '@/theme';
 import { formatValue } from './format';
 import { Select } from './web-inputs';
 
-/** The imported analyses of one ingredient side by side, as fed or on dry matter, estimates marked. */
+/**
+ * The lab analyses of one ingredient side by side (imported from files or typed in on the ingredient's
+ * page), as fed or on dry matter, estimates marked, values that did not go into the library marked.
+ */
 export function LabAnalysesHistoryScreen() {
   const params = useLocalSearchParams<{ ingredient?: string }>();
   const initial = Number(params.ingredient);
@@ -25,7 +28,7 @@ export function LabAnalysesHistoryScreen() {
   const withAnalyses = targets.data?.items.filter((t) => t.analyses > 0) ?? [];
 
   return (
-    <Screen title="Compare lab analyses" lead="Every imported analysis of an ingredient, oldest first." testID="screen-lab-history">
+    <Screen title="Compare lab analyses" lead="Every lab analysis of an ingredient, imported or typed in, oldest first." testID="screen-lab-history">
       <View style={styles.links}>
         <Link href="/library" testID="back-to-library"><AppText style={styles.link}>← Back to library</AppText></Link>
         <Link href="/lab-import" testID="to-lab-import"><AppText style={styles.link}>Import another file</AppText></Link>
@@ -35,7 +38,7 @@ export function LabAnalysesHistoryScreen() {
         withAnalyses.length ? (
           <Select label="Ingredient" value={String(ingredientId ?? '')} onChange={(v) => setIngredientId(v ? Number(v) : null)} options={[{ value: '', label: 'Choose an ingredient…' }, ...withAnalyses.map((t) => ({ value: String(t.id), label: `${t.name} (${t.analyses})` }))]} testID="history-ingredient" />
         ) : (
-          <AppText muted>No lab file has been imported yet.</AppText>
+          <AppText muted>No lab analysis has been recorded yet.</AppText>
         )
       ) : null}
       <ChoiceChips label="Show values" value={basis} onChange={setBasis} options={[{ value: 'as_fed', label: 'As fed' }, { value: 'dry_matter', label: 'On dry matter' }]} testID="history-basis" />
@@ -58,7 +61,11 @@ function Comparison({ data, basis }: { data: IngredientAnalyses; basis: 'as_fed'
             {data.analyses.map((a) => (
               <View key={a.id} style={styles.cell}>
                 <AppText variant="label">{a.analysedOn}</AppText>
-                <AppText variant="caption" muted>{a.sampleId} · {a.labName}</AppText>
+                <AppText variant="caption" muted>{[a.sampleId, a.labName].filter(Boolean).join(' · ')}</AppText>
+                <AppText variant="caption" muted testID={`history-entry-${a.id}`}>
+                  {a.entry === 'typed' ? 'typed in' : 'imported'}
+                  {a.recordedBy ? ` by ${a.recordedBy}` : ''}
+                </AppText>
               </View>
             ))}
           </View>
@@ -76,6 +83,7 @@ function Comparison({ data, basis }: { data: IngredientAnalyses; basis: 'as_fed'
                         <>
                           <AppText variant="small">{formatValue(shown, nutrient.unit)} {nutrient.unit}</AppText>
                           {v.origin !== 'measured' ? <AppText variant="caption" style={styles.estimate}>{v.origin === 'override' ? 'entered' : v.origin}{v.method ? `: ${v.method.name}` : ''}</AppText> : null}
+                          {!a.applied.includes(id) ? <AppText variant="caption" muted>not applied: a later-dated analysis held it</AppText> : null}
                         </>
                       ) : (
                         <AppText variant="small" muted>—</AppText>

@@ -2,7 +2,8 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { useRouter } from 'expo-router';
 
-import { useIngredientCopyMutation, useIngredientQuery } from '@/api/ingredients';
+import { ApiError } from '@/api/client';
+import { useIngredientCopyMutation, useIngredientDeleteMutation, useIngredientQuery } from '@/api/ingredients';
 import { useNutrientsQuery } from '@/api/nutrients';
 import { useActiveMembership } from '@/api/session';
 import { CautionBanner } from '@/components/caution-banner';
@@ -27,6 +28,7 @@ import type { IngredientDetail, ValueSet } from '@/shared/schemas/ingredients';
 import { valueOnBasis, type CompositionBasis } from '@/shared/units';
 import { colors, radius, space, TOUCH_MIN } from '@/theme';
 
+import { AnalysisHistory } from './analysis-history';
 import { BasisToggle } from './basis-toggle';
 import { formatPrice, formatValue } from './format';
 import { LabAnalysisCard } from './lab-analysis-card';
@@ -45,6 +47,7 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
   const copy = useIngredientCopyMutation();
   const units = useUnits();
   const [basis, setBasis] = useState<CompositionBasis>('as_fed');
+  const [confirming, setConfirming] = useState(false);
   const setNumber = new Map(item.valueSets.map((s, i) => [s.id, i + 1]));
 
   return (
@@ -52,6 +55,7 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
       <View style={styles.actions}>
         <Button label="Back to the library" tone="quiet" onPress={() => (router.canGoBack() ? router.back() : router.replace('/library'))} testID="back" />
         {item.library === 'own' && can('library:write') ? <Button label="Edit" onPress={() => router.push(`/library/${item.id}/edit`)} testID="ingredient-edit" /> : null}
+        {item.library === 'own' && can('library:write') && !confirming ? <Button label="Delete" tone="quiet" onPress={() => setConfirming(true)} testID="ingredient-delete" /> : null}
         {item.library === 'reference' && can('library:write') ? (
           <Button
             label={copy.isPending ? 'Copying…' : 'Copy into our library'}
@@ -61,6 +65,7 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
           />
         ) : null}
       </View>
+      {confirming ? <DeleteConfirm item={item} onDone={() => router.dismissTo('/library')} onCancel={() => setConfirming(false)} /> : null}
       {copy.isError ? <FormMessage tone="danger" text={describeError(copy.error)} /> : null}
       {item.refusals.map((r) => (
         <FormMessage key={r.family} tone="danger" text={r.message} testID={`refusal-${r.family}`} />
@@ -79,6 +84,7 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
       <BasisToggle value={basis} onChange={setBasis} />
       <Profile item={item} basis={basis} setNumber={setNumber} />
       <Sources sets={item.valueSets} setNumber={setNumber} />
+      {item.library === 'own' ? <AnalysisHistory ingredientId={item.id} basis={basis} canCompare={can('lab:import')} /> : null}
       {item.library === 'own' && can('lab:import') ? <LabAnalysisCard ingredientId={item.id} /> : null}
       <Card title="Price" testID="price-history">
         {item.prices.length === 0 ? <AppText muted>No price recorded.</AppText> : null}
@@ -91,6 +97,45 @@ function IngredientBody({ item }: { item: IngredientDetail }) {
       </Card>
       <CautionBanner compact />
     </Screen>
+  );
+}
+
+/**
+ * The second step of deleting: says what goes with the ingredient and what stays, then deletes or
+ * shows why the server refused (the formulas and other things still using it, by name).
+ */
+function DeleteConfirm({ item, onDone, onCancel }: { item: IngredientDetail; onDone: () => void; onCancel: () => void }) {
+  const remove = useIngredientDeleteMutation(item.id);
+  const refusal = remove.error instanceof ApiError && remove.error.code === 'in_use' ? remove.error : null;
+  const uses = refusal
+    ? [
+        ...(refusal.fieldErrors.formulas ?? []).map((n) => `Formula: ${n}`),
+        ...(refusal.fieldErrors.specifications ?? []).map((n) => `Specification (inclusion limit): ${n}`),
+        ...(refusal.fieldErrors.supplyPlans ?? []).map((n) => `Supply plan: ${n}`),
+      ]
+    : [];
+  return (
+    <Card title={`Delete “${item.name}”?`} testID="delete-confirm" style={styles.confirm}>
+      <AppText>
+        It leaves our library with its values, prices and lab analyses. Formula versions already kept are not changed: each keeps the values it was solved with.
+      </AppText>
+      {refusal ? (
+        <View accessibilityRole="alert" style={styles.refusal} testID="delete-refused">
+          <AppText>{refusal.message}</AppText>
+          {uses.map((u) => (
+            <AppText key={u} variant="small">• {u}</AppText>
+          ))}
+        </View>
+      ) : remove.isError ? (
+        <FormMessage tone="danger" text={`Nothing was deleted. ${describeError(remove.error)}`} testID="delete-error" />
+      ) : null}
+      <View style={styles.actions}>
+        {refusal ? null : (
+          <Button label={remove.isPending ? 'Deleting…' : 'Yes, delete it'} disabled={remove.isPending} onPress={() => remove.mutate(undefined, { onSuccess: onDone })} testID="delete-confirm-yes" style={styles.danger} />
+        )}
+        <Button label={refusal ? 'Close' : 'Keep it'} tone="quiet" onPress={onCancel} disabled={remove.isPending} testID="delete-confirm-no" />
+      </View>
+    </Card>
   );
 }
 
@@ -154,4 +199,7 @@ const styles = StyleSheet.create({
   valueCell: { alignItems: 'flex-end' },
   source: { gap: 2, paddingVertical: space.sm, borderTopWidth: 1, borderTopColor: colors.rule, borderRadius: radius.sm },
   caution: { color: colors.caution },
+  confirm: { borderColor: colors.danger, borderLeftWidth: 4 },
+  refusal: { gap: space.xs, padding: space.md, borderRadius: radius.md, backgroundColor: colors.dangerSoft },
+  danger: { backgroundColor: colors.danger },
 });

@@ -19,8 +19,14 @@ export const pageQuery = {
 
 export const libraryQuery = z.enum(LIBRARIES, { message: `library must be one of: ${LIBRARIES.join(', ')}` });
 
+/** True for a calendar date that exists (the date parser rolls 2026-02-30 over to March 2 instead of refusing it). */
+export function isRealDate(text: string): boolean {
+  const parsed = new Date(`${text}T00:00:00Z`);
+  return !Number.isNaN(parsed.getTime()) && parsed.toISOString().slice(0, 10) === text;
+}
+
 /** A calendar date, YYYY-MM-DD. */
-export const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-03-31').refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'not a real date');
+export const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-03-31').refine(isRealDate, 'not a real date: check the day and the month');
 
 /** A page of rows. */
 export type Page<T> = { items: T[]; total: number; page: number; pageSize: number };

@@ -236,16 +236,40 @@ describe('formulas API', () => {
       assert.equal(status, 200, JSON.stringify(body));
       const sweep = (body as FormulaPriceSweep).sweep;
       assert.equal(sweep.points.length, 31);
-      assert.ok(sweep.entersAtPrice !== null && sweep.entersAtPrice > 0, `enters at ${sweep.entersAtPrice}`);
+      assert.equal(sweep.entry.kind, 'enters_in_range', JSON.stringify(sweep.entry));
+      const entersAt = sweep.entry.kind === 'enters_in_range' ? sweep.entry.price : NaN;
+      assert.ok(entersAt > 0 && entersAt < 1.5, `enters at ${entersAt}`);
       for (let i = 1; i < sweep.points.length; i++) {
         const [p, q] = [sweep.points[i - 1], sweep.points[i]];
         assert.ok(q.costPerBatch! >= p.costPerBatch! - 1e-6, `cost at ${q.pricePerKg} below cost at ${p.pricePerKg}`);
         assert.ok(q.kg! <= p.kg! + 1e-6, 'inclusion never grows as the price rises');
       }
-      const above = sweep.points.find((p) => p.pricePerKg > sweep.entersAtPrice! + 1e-6);
-      if (above) assert.ok(above.kg! < 1e-6, 'left out above its entering price');
+      const above = sweep.points.filter((p) => p.pricePerKg > entersAt + 1e-6);
+      assert.ok(above.length > 0 && above.every((p) => p.kg! < 1e-6), 'left out above its entering price');
+      assert.ok(sweep.points.filter((p) => p.pricePerKg < entersAt - 1e-6).every((p) => p.kg! > 1e-3), 'used below it');
+      // Today's price is the library's; the point solved there matches a plain solve.
+      const today = (await nutritionist.call('POST', `/api/formulas/${f.id}/solve`, {})).body as FormulaSolve;
+      const used = today.result.status === 'optimal' ? (today.result.mix.find((m) => m.id === String(own.contractMeal))?.kg ?? 0) : NaN;
+      close(sweep.current.kg!, used, 1e-6, 'kg at today’s price');
       // Cap from Dabbou et al. 2018: at most 10 % of the feed, 100 kg in a 1,000 kg batch.
       assert.ok(sweep.points.every((p) => p.kg! <= 100 + 1e-6));
+    });
+
+    test('a minimum inclusion is told apart from "never enters": always in, at its minimum when dear', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody())).body as FormulaDetail;
+      const inputs = { ...f.inputs, ingredients: f.inputs.ingredients.map((i) => (i.ingredientId === own.contractMeal ? { ...i, minPct: 2 } : i)) };
+      const { status, body } = await nutritionist.call('POST', `/api/formulas/${f.id}/price-sweep`, { ingredientId: own.contractMeal, fromPrice: 0, toPrice: 1.5, steps: 7, inputs });
+      assert.equal(status, 200, JSON.stringify(body));
+      const { entry, points } = (body as FormulaPriceSweep).sweep;
+      assert.equal(entry.kind, 'always_in', JSON.stringify(entry));
+      if (entry.kind !== 'always_in') return;
+      assert.equal(entry.reason, 'minimum');
+      close(entry.leastKg, 20, 1e-6, '2 % of 1,000 kg');
+      assert.ok(points.every((p) => p.kg! >= 20 - 1e-6));
+      // The meal is also capped out at 0 %: then nothing keeps it in and it is left out at any price.
+      const capped = { ...f.inputs, ingredients: f.inputs.ingredients.map((i) => (i.ingredientId === own.contractMeal ? { ...i, maxPct: 0 } : i)) };
+      const out = (await nutritionist.call('POST', `/api/formulas/${f.id}/price-sweep`, { ingredientId: own.contractMeal, steps: 3, inputs: capped })).body as FormulaPriceSweep;
+      assert.deepEqual(out.sweep.entry, { kind: 'never_in_range', entersAtPrice: null });
     });
 
     test('an ingredient that is not in the formula is refused with what to do', async () => {

@@ -105,7 +105,12 @@ describe('formula workspace in the browser', () => {
     await visible(page, 'nutrient-chart').screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-nutrient-chart.png') });
     await visible(page, 'insect-sweep').click();
     await visible(page, 'price-sweep-chart').waitFor();
-    assert.match(await visible(page, 'insect-enters').innerText(), /enters the mix at \d+\.\d{3} per kg or less/);
+    // The meal is in the demo mix at today's price: the sentence says so and where it would leave, never "enters" as if it were out.
+    const enters = await visible(page, 'insect-enters').innerText();
+    const said = enters.match(/is already in the mix at today’s price of (\d+\.\d{3}) EUR per kg\. It stays in up to (\d+\.\d{3}) EUR per kg; above that it is left out\./);
+    assert.ok(said, enters);
+    assert.ok(Number(said[2]) > Number(said[1]), `stays in up to ${said[2]}, above today’s ${said[1]}`);
+    await visible(page, 'sweep-enters-marker').waitFor();
     const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
     assert.ok(scrollWidth <= PHONE.width, `page is ${scrollWidth} px wide at ${PHONE.width} px`);
     await visible(page, 'insect-value').screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-insect-value.png') });

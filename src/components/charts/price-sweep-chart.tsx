@@ -19,7 +19,8 @@ function ticks(lo: number, hi: number, n = 4): number[] {
 /**
  * Cost per tonne (or short ton) of the formula (line, left axis) and the inclusion of one ingredient
  * (bars, right axis, % of the batch) against that ingredient's price per kg (or per lb) as fed, in the
- * organization's currency. A dashed line marks the price at which it enters the mix; a ring marks
+ * organization's currency. A dashed line marks the price at which it enters the mix (or, when a minimum or the
+ * specification keeps it in at any price, the price below which more of it is used); a ring marks
  * today's price. The sweep arrives per kg and per tonne; only the axes are converted.
  */
 export function PriceSweepChart({ data, units }: { data: FormulaPriceSweep; units: Units }) {
@@ -42,7 +43,9 @@ export function PriceSweepChart({ data, units }: { data: FormulaPriceSweep; unit
   const yCost = (c: number) => PAD.top + (1 - (c - yLo) / (yHi - yLo || 1)) * plotH;
   const yInc = (pct: number) => PAD.top + (1 - pct / incMax) * plotH;
   const barW = Math.max(2, (plotW / Math.max(1, data.sweep.points.length)) * 0.6);
-  const enters = data.sweep.entersAtPrice === null ? null : units.priceOf(data.sweep.entersAtPrice);
+  const entry = data.sweep.entry;
+  const enters = entry.kind === 'enters_in_range' ? units.priceOf(entry.price) : entry.kind === 'always_in' && entry.risesAbovePrice !== null ? units.priceOf(entry.risesAbovePrice) : null;
+  const entersWords = entry.kind === 'always_in' ? 'more below' : 'enters at';
   const today = units.priceOf(data.currentPricePerKg);
 
   return (
@@ -68,7 +71,7 @@ export function PriceSweepChart({ data, units }: { data: FormulaPriceSweep; unit
           {enters !== null && enters >= pMin && enters <= pMax ? (
             <G testID="sweep-enters-marker">
               <Line x1={x(enters)} x2={x(enters)} y1={PAD.top} y2={PAD.top + plotH} stroke={colors.accent} strokeWidth={2} strokeDasharray="5,4" />
-              <SvgText x={Math.min(x(enters) + 4, PAD.left + plotW - 90)} y={PAD.top + 12} fontSize={11} fill={colors.accent} fontFamily={fonts.text}>{`enters at ${enters.toFixed(3)}/${units.mass}`}</SvgText>
+              <SvgText x={Math.min(x(enters) + 4, PAD.left + plotW - 90)} y={PAD.top + 12} fontSize={11} fill={colors.accent} fontFamily={fonts.text}>{`${entersWords} ${enters.toFixed(3)}/${units.mass}`}</SvgText>
             </G>
           ) : null}
           {today >= pMin && today <= pMax ? (

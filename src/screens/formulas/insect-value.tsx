@@ -15,10 +15,12 @@ import type { FormulaInputsInput } from '@/shared/schemas/formulas';
 import { colors, space } from '@/theme';
 
 import { pct } from './format';
+import { sweepSentence } from './sweep-words';
 
 /**
  * What an insect meal is worth in this diet: the formula re-solved on the server over a range of the
- * meal's price, with the price at which it enters the mix and how its inclusion grows as it gets cheaper.
+ * meal's price, with where it stands (the price at which it enters, already in today, out or in over the whole
+ * range, or kept in at any price by a minimum or the specification) and how its inclusion grows as it gets cheaper.
  */
 export function InsectValue({ formulaId, meals, currentInputs, units }: { units: Units; formulaId: number; meals: { id: number; name: string }[]; currentInputs: () => FormulaInputsInput | null }) {
   const [chosen, setChosen] = useState(meals[0] ? String(meals[0].id) : '');
@@ -47,11 +49,7 @@ export function InsectValue({ formulaId, meals, currentInputs, units }: { units:
       {data ? (
         <View style={styles.result} testID="insect-value-result">
           <CautionBanner compact />
-          <AppText testID="insect-enters">
-            {data.sweep.entersAtPrice === null
-              ? `In ${units.currency}: ${data.ingredientName} does not enter this mix at any price from ${p(steps[0]?.pricePerKg, 3)} to ${p(steps[steps.length - 1]?.pricePerKg, 3)} ${per} (or a minimum keeps it in at every price).`
-              : `In ${units.currency}: ${data.ingredientName} enters the mix at ${p(data.sweep.entersAtPrice, 3)} ${per} or less; today’s price is ${p(data.currentPricePerKg, 3)} ${per}.`}
-          </AppText>
+          <AppText testID="insect-enters">{sweepSentence(data, units)}</AppText>
           <PriceSweepChart data={data} units={units} />
           {data.sweep.breakpoints.length ? (
             <AppText variant="small" muted>

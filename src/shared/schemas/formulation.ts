@@ -606,12 +606,44 @@ export interface SweepPoint {
   percent: number | null;
 }
 
+/**
+ * Where a swept ingredient stands against the range of prices swept (currency per kg as fed). Every
+ * price here is exact (from ranging, confirmed by re-solving just above and just below), not read off
+ * the grid of points.
+ *
+ * - `enters_in_range`: left out above `price` and used at `price` or less, with `price` between
+ *   `fromPrice` and `toPrice`.
+ * - `never_in_range`: left out at every price swept. `entersAtPrice` is the price, below `fromPrice`,
+ *   at or below which it would enter (below 0: not even free); null when its limits (a maximum or
+ *   stock of 0) or the specification keep it out at any price.
+ * - `in_throughout_range`: used at every price swept; left out only above `leavesAbovePrice`, which is
+ *   above `toPrice`.
+ * - `always_in`: used at any price, however high: never less than `leastKg` (`leastPercent` of the
+ *   batch). `reason`: `fixed` (a fixed amount), `minimum` (its minimum inclusion) or `required` (the
+ *   specification cannot be met with less). `risesAbovePrice`: the price at or below which more
+ *   than that least amount is used; null when its price cannot change its amount (fixed, or pinned).
+ * - `no_mix`: no mix meets the specification at any price, so there is nothing to enter.
+ * - `failed`: the solver could not settle it; `message` says what failed. No price is guessed.
+ */
+export type PriceSweepEntry =
+  | { kind: 'enters_in_range'; price: number }
+  | { kind: 'never_in_range'; entersAtPrice: number | null }
+  | { kind: 'in_throughout_range'; leavesAbovePrice: number }
+  | { kind: 'always_in'; reason: 'fixed' | 'minimum' | 'required'; leastKg: number; leastPercent: number; risesAbovePrice: number | null }
+  | { kind: 'no_mix' }
+  | { kind: 'failed'; message: string };
+
 export interface PriceSweepResult {
   status: 'swept';
   ingredient: string;
+  /** The range swept, currency per kg. */
+  fromPrice: number;
+  toPrice: number;
   points: SweepPoint[];
-  /** Highest price at which the ingredient is used at all (null if never used in the range searched). */
-  entersAtPrice: number | null;
+  /** The same at the ingredient's own price in the problem (today's price). */
+  current: SweepPoint;
+  /** Where the ingredient stands against the range: see {@link PriceSweepEntry}. */
+  entry: PriceSweepEntry;
   /** Prices where the inclusion changes, from exact ranging between the sweep ends. */
   breakpoints: number[];
 }

@@ -7,7 +7,9 @@ import {
   approveVersion,
   compareVersions,
   createFormula,
+  deleteFormula,
   formulaChoices,
+  formulaRemoval,
   getApprovedVersion,
   getFormula,
   getVersion,
@@ -26,7 +28,8 @@ const approvedParams = idParams;
 /**
  * The formula workspace. Planners (formulas:read / formulas:solve) see and solve everything; approving
  * needs formulas:approve. Mill operators hold only formulas:read-approved and reach only /approved: the
- * current approved version of each formula, never drafts or other versions.
+ * current approved version of each formula, never drafts or other versions. A formula never approved,
+ * with nothing recorded against it, can be deleted; any other is refused with what holds it.
  */
 export function formulasRouter({ db }: { db: Db }): Router {
   const router = Router();
@@ -67,6 +70,21 @@ export function formulasRouter({ db }: { db: Db }): Router {
     const { id } = idParams.parse(req.params);
     await updateFormula(db, organizationId, id, updateFormulaInput.parse(req.body));
     res.json(await getFormula(db, organizationId, id));
+  });
+
+  // Removing is open to whoever may create and solve formulas ('formulas:solve'): only a formula nobody
+  // approved and nothing was recorded against is ever deleted, and that is a planner's own draft work.
+  // Anything approved, recorded or shared is refused for every role, so no approval right is needed
+  // here; archiving such a formula would withdraw it from the mill and need 'formulas:approve'.
+  router.get('/:id/removal', access.member('formulas:solve'), async (req, res) => {
+    const { organizationId } = requireMembership(req);
+    res.json(await formulaRemoval(db, organizationId, idParams.parse(req.params).id));
+  });
+
+  router.delete('/:id', access.member('formulas:solve'), async (req, res) => {
+    const { organizationId } = requireMembership(req);
+    await deleteFormula(db, organizationId, idParams.parse(req.params).id);
+    res.status(204).end();
   });
 
   router.post('/:id/solve', access.member('formulas:solve'), async (req, res) => {

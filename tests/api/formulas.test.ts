@@ -2,8 +2,9 @@ import assert from 'node:assert/strict';
 import { after, before, describe, test } from 'node:test';
 import { and, count, eq, isNull } from 'drizzle-orm';
 
-import { formulas, formulaVersions, ingredients, specifications } from '../../server/db/schema';
-import type { FormulaDetail, FormulaPriceSweep, FormulaSolve, VersionDetail } from '../../src/shared/schemas/formulas';
+import { formulas, formulaVersions, ingredients, shares, specifications } from '../../server/db/schema';
+import type { FormulaDetail, FormulaPriceSweep, FormulaRemoval, FormulaSolve, FormulaSummary, VersionDetail } from '../../src/shared/schemas/formulas';
+import type { ShareCreated } from '../../src/shared/schemas/shares';
 import type { Client } from '../helpers/accounts';
 import { organizationId, signInAsDemo, startDemoApp } from '../helpers/demo';
 import type { TestApp } from '../helpers/app';
@@ -20,7 +21,10 @@ describe('formulas API', () => {
   let nutritionist: Client;
   let operator: Client;
   let outsider: Client;
+  let advisor: Client;
+  let farmer: Client;
   let millId: number;
+  let farmId: number;
   let growerSpecId: number;
   const own: Record<string, number> = {};
 
@@ -33,6 +37,10 @@ describe('formulas API', () => {
     outsider = await signInAsDemo(base, 'farmer@orrinhollow.example');
     await outsider.call('PUT', '/api/auth/active-organization', { organizationId: await organizationId(db, 'Orrin Hollow Larvae Farm') });
     millId = await organizationId(db, 'Tamsby Cooperative Feed Mill');
+    farmId = await organizationId(db, 'Orrin Hollow Larvae Farm');
+    advisor = await signInAsDemo(base, 'advisor@upperwend.example');
+    await advisor.call('PUT', '/api/auth/active-organization', { organizationId: millId });
+    farmer = await signInAsDemo(base, 'worker@orrinhollow.example');
     const [refGrower] = await db.select().from(specifications).where(and(isNull(specifications.organizationId), eq(specifications.code, 'nrc1994-broiler-grower')));
     growerSpecId = (await db.select().from(specifications).where(and(eq(specifications.organizationId, millId), eq(specifications.copiedFromId, refGrower.id))))[0].id;
     for (const code of ['maize', 'soybean-meal-48', 'soybean-oil', 'limestone', 'dicalcium-phosphate', 'salt', 'l-lysine-hcl', 'dl-methionine', 'l-threonine', 'bsf-full-fat-brewery', 'bsf-defatted', 'wheat']) {
@@ -277,6 +285,90 @@ describe('formulas API', () => {
       const { status, body } = await nutritionist.call('POST', `/api/formulas/${f.id}/price-sweep`, { ingredientId: own['bsf-full-fat-brewery'] });
       assert.equal(status, 400);
       assert.match(body.error.fieldErrors.ingredientId[0], /add this ingredient/);
+    });
+  });
+
+  describe('DELETE /api/formulas/:id', () => {
+    const rowsOf = async (formulaId: number) => ({
+      formulas: (await app.database.db.select({ n: count() }).from(formulas).where(eq(formulas.id, formulaId)))[0].n,
+      versions: await versionCount(formulaId),
+    });
+
+    test('a formula never approved goes with its kept versions, in one go; its removal says so before', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody({ name: 'Trial grower to drop' }))).body as FormulaDetail;
+      const bad = { ...f.inputs, nutrients: f.inputs.nutrients.map((b) => (b.nutrientId === 'amen_poultry' ? { ...b, min: 9000 } : b)) };
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, {})).status, 201);
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, { inputs: bad })).status, 201);
+      const preview = await nutritionist.call('GET', `/api/formulas/${f.id}/removal`);
+      assert.equal(preview.status, 200);
+      const removal = preview.body as FormulaRemoval;
+      assert.equal(removal.removable, true);
+      assert.equal(removal.versionCount, 2);
+      assert.deepEqual(removal.holds, { approvedVersions: [], batches: { count: 0, lastMadeOn: null }, shares: [] });
+      assert.equal(removal.message, 'Deleting “Trial grower to drop” removes it for good with its current inputs and its 2 kept versions (none approved, none shared, no batch recorded). This cannot be undone.');
+      assert.deepEqual(await rowsOf(f.id), { formulas: 1, versions: 2 }, 'the preview changes nothing');
+
+      const { status } = await nutritionist.call('DELETE', `/api/formulas/${f.id}`);
+      assert.equal(status, 204);
+      assert.deepEqual(await rowsOf(f.id), { formulas: 0, versions: 0 });
+      assert.equal((await nutritionist.call('GET', `/api/formulas/${f.id}`)).status, 404);
+      assert.ok(!((await nutritionist.call('GET', '/api/formulas')).body as FormulaSummary[]).some((x) => x.id === f.id), 'gone from the list');
+      assert.equal((await nutritionist.call('DELETE', `/api/formulas/${f.id}`)).status, 404, 'a second delete finds nothing');
+    });
+
+    test('an approved formula with a batch recorded is refused, naming both; nothing changes and the mill keeps its batch sheet and log', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody({ name: 'Grower in use' }))).body as FormulaDetail;
+      const v = (await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, {})).body as VersionDetail;
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/versions/${v.id}/approve`)).status, 200);
+      const batch = await operator.call('POST', '/api/batches', { versionId: v.id, madeOn: '2026-03-20', batchSize: 1000, operatorName: 'T. Ferro' });
+      assert.equal(batch.status, 201, JSON.stringify(batch.body));
+
+      const removal = (await nutritionist.call('GET', `/api/formulas/${f.id}/removal`)).body as FormulaRemoval;
+      assert.equal(removal.removable, false);
+      assert.deepEqual(removal.holds.approvedVersions.map((x) => [x.number, x.current, x.approvedBy]), [[1, true, 'Idris Okonjo']]);
+      assert.deepEqual(removal.holds.batches, { count: 1, lastMadeOn: '2026-03-20' });
+
+      const { status, body } = await nutritionist.call('DELETE', `/api/formulas/${f.id}`);
+      assert.equal(status, 409);
+      assert.equal(body.error.code, 'in_use');
+      assert.match(body.error.message, /^“Grower in use” cannot be deleted: version 1 is the approved version the mill makes batches from \(approved by Idris Okonjo on \d{4}-\d{2}-\d{2}\) and 1 batch was recorded from it at the mill \(the last made on 2026-03-20\)\./);
+      assert.equal(body.error.message, removal.message);
+      assert.match(body.error.fieldErrors.approvedVersions[0], /^Version 1, approved by Idris Okonjo on .* \(the mill uses it\)$/);
+      assert.deepEqual(body.error.fieldErrors.batches, ['1 batch recorded, the last made on 2026-03-20']);
+      // Nothing was touched: the formula, its version, the mill's batch sheet and the log all still answer.
+      assert.deepEqual(await rowsOf(f.id), { formulas: 1, versions: 1 });
+      assert.equal((await operator.call('GET', `/api/batch-sheets/${v.id}`)).status, 200);
+      const log = (await operator.call('GET', `/api/batches?versionId=${v.id}`)).body as { formulaId: number; formulaName: string }[];
+      assert.deepEqual(log.map((b) => [b.formulaId, b.formulaName]), [[f.id, 'Grower in use']]);
+      // Nor can the advisor: what holds it holds it for every role.
+      assert.equal((await advisor.call('DELETE', `/api/formulas/${f.id}`)).status, 409);
+    });
+
+    test('a version shared with a farm holds the formula even unapproved; the farm’s link keeps working', async () => {
+      const f = (await advisor.call('POST', '/api/formulas', growerBody({ name: 'Grower shared with the farm' }))).body as FormulaDetail;
+      const v = (await advisor.call('POST', `/api/formulas/${f.id}/versions`, {})).body as VersionDetail;
+      const shared = await advisor.call('POST', '/api/shares', { kind: 'formula_version', formulaId: f.id, versionId: v.id, toOrganizationId: farmId });
+      assert.equal(shared.status, 201, JSON.stringify(shared.body));
+      const { status, body } = await advisor.call('DELETE', `/api/formulas/${f.id}`);
+      assert.equal(status, 409);
+      assert.match(body.error.message, /a version of it was shared with Orrin Hollow Larvae Farm/);
+      assert.match(body.error.fieldErrors.shares[0], /^Version 1 shared with Orrin Hollow Larvae Farm on \d{4}-\d{2}-\d{2}$/);
+      assert.equal(body.error.fieldErrors.approvedVersions, undefined, 'it was never approved');
+      assert.deepEqual(await rowsOf(f.id), { formulas: 1, versions: 1 });
+      assert.equal((await farmer.call('GET', `/api/shares/${(shared.body as ShareCreated).token}`)).status, 200);
+      // Shares of another formula do not hold this one.
+      const other = (await advisor.call('POST', '/api/formulas', growerBody({ name: 'Unshared twin' }))).body as FormulaDetail;
+      await advisor.call('POST', `/api/formulas/${other.id}/versions`, {});
+      assert.equal(((await advisor.call('GET', `/api/formulas/${other.id}/removal`)).body as FormulaRemoval).removable, true);
+      assert.ok((await app.database.db.select({ n: count() }).from(shares))[0].n >= 1);
+    });
+
+    test('another organization’s formula answers 404 to its removal and to a delete, and stays', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody({ name: 'Not theirs' }))).body as FormulaDetail;
+      assert.equal((await outsider.call('GET', `/api/formulas/${f.id}/removal`)).status, 404);
+      assert.equal((await outsider.call('DELETE', `/api/formulas/${f.id}`)).status, 404);
+      assert.equal((await operator.call('DELETE', `/api/formulas/${f.id}`)).status, 403, 'a mill operator may not remove formulas');
+      assert.deepEqual(await rowsOf(f.id), { formulas: 1, versions: 0 });
     });
   });
 

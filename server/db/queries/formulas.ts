@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, isNotNull, isNull, max, or } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, isNotNull, isNull, max, or, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import { priceSweep, solveFormula } from '../../../src/shared/engine';
@@ -14,6 +14,7 @@ import type {
   IngredientChoice,
   FormulaPriceSweep,
   formulaPriceSweepInput,
+  FormulaRemoval,
   FormulaSolve,
   FormulaSummary,
   NutrientInfo,
@@ -25,11 +26,14 @@ import type {
 import { badRequest, HttpError, notFound } from '../../http/errors';
 import type { Db } from '../client';
 import {
+  batchLogs,
   formulas,
   formulaVersions,
   ingredientNutrientValues,
   ingredients,
   nutrients,
+  organizations,
+  shares,
   species as speciesTable,
   specifications,
   users,
@@ -263,6 +267,97 @@ export async function updateFormula(db: Db, organizationId: number, id: number, 
       throw new HttpError(409, 'version_conflict', `This formula was changed by someone else since you opened it (now revision ${locked.revision}). Reload it; your edit was not saved.`);
     }
     await tx.update(formulas).set({ name: input.name ?? locked.name, inputs: input.inputs, revision: locked.revision + 1 }).where(eq(formulas.id, id));
+  });
+}
+
+// ---------------------------------------------------------------------------
+// Removing
+// ---------------------------------------------------------------------------
+
+const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
+
+/** A list in words: "a", "a and b", "a, b and c". */
+function wordList(parts: string[]): string {
+  return parts.length <= 1 ? (parts[0] ?? '') : `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
+}
+
+/**
+ * What holds a formula, read inside the caller's transaction; with `lock`, the formula row and its
+ * versions are locked first, so no version can be kept or approved between the check and a delete
+ * (keeping and approving lock the same rows). Batches are only ever recorded from an approved version,
+ * so an unapproved formula cannot gain one meanwhile.
+ */
+async function removalOf(tx: Db, organizationId: number, id: number, lock: boolean): Promise<FormulaRemoval> {
+  const formulaQuery = tx.select({ id: formulas.id, name: formulas.name }).from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId)));
+  const [row] = lock ? await formulaQuery.for('update') : await formulaQuery;
+  if (!row) throw notFound('formula', id);
+  const versionQuery = tx.select(versionColumns).from(formulaVersions).where(and(eq(formulaVersions.formulaId, id), eq(formulaVersions.organizationId, organizationId))).orderBy(desc(formulaVersions.number));
+  const versions = summarizeVersions((lock ? await versionQuery.for('update') : await versionQuery) as FormulaVersionRow[]);
+  const versionIds = versions.map((v) => v.id);
+  const [batch] = await tx
+    .select({ n: count(), last: max(batchLogs.madeOn) })
+    .from(batchLogs)
+    .where(and(eq(batchLogs.organizationId, organizationId), versionIds.length ? or(eq(batchLogs.formulaId, id), inArray(batchLogs.versionId, versionIds)) : eq(batchLogs.formulaId, id)));
+  // A share keeps a copy of the version, not a key to it: find this formula's by the copy's formula id.
+  const shareRows = await tx
+    .select({ payload: shares.payload, farm: organizations.name, sharedAt: shares.createdAt })
+    .from(shares)
+    .innerJoin(organizations, eq(organizations.id, shares.toOrganizationId))
+    .where(and(eq(shares.fromOrganizationId, organizationId), eq(shares.kind, 'formula_version'), sql`CAST(JSON_VALUE(${shares.payload}, '$.version.formulaId') AS UNSIGNED) = ${id}`))
+    .orderBy(asc(shares.createdAt));
+  const approvedVersions = versions
+    .filter((v) => v.approvedAt)
+    .map((v) => ({ number: v.number, approvedBy: v.approvedBy, approvedAt: v.approvedAt!, current: v.approval === 'current' }))
+    .sort((a, b) => a.number - b.number);
+  const shared = shareRows.map((r) => ({ versionNumber: r.payload.kind === 'formula_version' ? r.payload.version.number : 0, farm: r.farm, sharedAt: r.sharedAt.toISOString() }));
+  const batches = { count: batch?.n ?? 0, lastMadeOn: batch?.last ?? null };
+
+  const held: string[] = [];
+  if (approvedVersions.length) {
+    const current = approvedVersions.find((v) => v.current);
+    const others = approvedVersions.filter((v) => !v.current).map((v) => v.number);
+    const parts = [];
+    if (current) parts.push(`version ${current.number} is the approved version the mill makes batches from (approved by ${current.approvedBy ?? 'unknown'} on ${current.approvedAt.slice(0, 10)})`);
+    if (others.length) parts.push(`${others.length === 1 ? 'version' : 'versions'} ${wordList(others.map(String))} ${others.length === 1 ? 'was' : 'were'} approved before`);
+    held.push(...parts);
+  }
+  if (batches.count) held.push(`${plural(batches.count, 'batch was', 'batches were')} recorded from it at the mill (the last made on ${batches.lastMadeOn})`);
+  if (shared.length) {
+    const farms = [...new Set(shared.map((x) => x.farm))];
+    held.push(`${shared.length === 1 ? 'a version of it was' : `${shared.length} of its versions were`} shared with ${wordList(farms)}`);
+  }
+  const name = `“${row.name}”`;
+  const message = held.length
+    ? `${name} cannot be deleted: ${wordList(held)}. Batch sheets, the batch log and shared links name this formula and must keep working, so it stays as it is.`
+    : `Deleting ${name} removes it for good with its current inputs and ${versions.length ? `its ${plural(versions.length, 'kept version')} (none approved, none shared, no batch recorded)` : 'no kept version'}. This cannot be undone.`;
+  return { formulaId: row.id, formulaName: row.name, removable: held.length === 0, versionCount: versions.length, holds: { approvedVersions, batches, shares: shared }, message };
+}
+
+/** What deleting a formula would do, or what holds it (nothing is changed). */
+export async function formulaRemoval(db: Db, organizationId: number, id: number): Promise<FormulaRemoval> {
+  return removalOf(db, organizationId, id, false);
+}
+
+/**
+ * Deletes a formula that was never approved and has nothing recorded against it, with its kept versions,
+ * in one transaction. Anything approved, recorded or shared refuses it (409 `in_use`, naming each hold)
+ * and nothing is changed.
+ */
+export async function deleteFormula(db: Db, organizationId: number, id: number): Promise<FormulaRemoval> {
+  return db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    const removal = await removalOf(t, organizationId, id, true);
+    if (!removal.removable) {
+      const { approvedVersions, batches, shares: shared } = removal.holds;
+      const fieldErrors: Record<string, string[]> = {};
+      if (approvedVersions.length) fieldErrors.approvedVersions = approvedVersions.map((v) => `Version ${v.number}, approved by ${v.approvedBy ?? 'unknown'} on ${v.approvedAt.slice(0, 10)}${v.current ? ' (the mill uses it)' : ''}`);
+      if (batches.count) fieldErrors.batches = [`${plural(batches.count, 'batch', 'batches')} recorded, the last made on ${batches.lastMadeOn}`];
+      if (shared.length) fieldErrors.shares = shared.map((x) => `Version ${x.versionNumber} shared with ${x.farm} on ${x.sharedAt.slice(0, 10)}`);
+      throw new HttpError(409, 'in_use', removal.message, fieldErrors);
+    }
+    await t.delete(formulaVersions).where(and(eq(formulaVersions.formulaId, id), eq(formulaVersions.organizationId, organizationId)));
+    await t.delete(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId)));
+    return removal;
   });
 }
 

@@ -265,6 +265,32 @@ export type FormulaPriceSweep = {
   sweep: PriceSweepResult;
 };
 
+/**
+ * What removing a formula does (GET /api/formulas/:id/removal answers this before a DELETE). A formula
+ * that was never approved and has nothing recorded against it is deleted outright with its current
+ * inputs and its kept versions. One with an approved version, a batch recorded from it or a version
+ * shared with a farm is refused (409 `in_use`): a mixer's batch sheet, the batch log and the farm's
+ * link must keep working, and they name the formula and its versions.
+ */
+export type FormulaRemoval = {
+  formulaId: number;
+  formulaName: string;
+  /** True when DELETE removes it outright; false when something below holds it. */
+  removable: boolean;
+  /** Kept versions a delete takes with it (none of them approved or shared). */
+  versionCount: number;
+  holds: {
+    /** Every version ever approved, current or superseded. */
+    approvedVersions: { number: number; approvedBy: string | null; approvedAt: string; current: boolean }[];
+    /** Batches recorded at the mill from its versions; `lastMadeOn` YYYY-MM-DD. */
+    batches: { count: number; lastMadeOn: string | null };
+    /** Its versions shared with farms. */
+    shares: { versionNumber: number; farm: string; sharedAt: string }[];
+  };
+  /** What will happen, or why it cannot, in words. */
+  message: string;
+};
+
 /** An ingredient the picker offers: price as fed, and whether the insect-protein rule allows it for the chosen species. */
 export type IngredientChoice = {
   id: number;

@@ -30,13 +30,15 @@ async function fixtures(world: AuthWorld) {
   const versionId = await newVersion();
   const approvedId = await newVersion();
   await approveVersion(db, world.orgA.id, world.userIds.owner, formulaId, approvedId);
-  return { body, formulaId, versionId, approvedId, newVersion, soyId: soy.id };
+  // A fresh draft for each caller of a delete, so every caller meets a formula that can be removed.
+  const newDraft = () => createFormula(db, world.orgA.id, world.userIds.owner, createFormulaInput.parse({ ...body, name: 'Rule-table draft' }));
+  return { body, formulaId, versionId, approvedId, newVersion, newDraft, soyId: soy.id };
 }
 
 /**
  * The formula workspace. Owners, nutritionists and advisors read and solve; owners and nutritionists
- * approve; mill operators reach only the current approved versions. Another organization's formula
- * answers 404.
+ * approve; mill operators reach only the current approved versions. Removing a never-approved draft
+ * needs 'formulas:solve' like creating one. Another organization's formula answers 404.
  */
 export const formulasRules: RuleSet = {
   area: 'formulas',
@@ -68,6 +70,14 @@ export const formulasRules: RuleSet = {
         url: `${base}/versions/0/approve`,
         prepare: async () => ({ url: `${base}/versions/${await f.newVersion()}/approve` }),
         expect: allowOnly(APPROVERS, 200, { outsider: 404 }),
+      },
+      { method: 'GET', pattern: '/api/formulas/:id/removal', url: `${base}/removal`, expect: allowOnly(SOLVERS, 200, { outsider: 404 }) },
+      {
+        method: 'DELETE',
+        pattern: '/api/formulas/:id',
+        url: '/api/formulas/0',
+        prepare: async () => ({ url: `/api/formulas/${await f.newDraft()}` }),
+        expect: allowOnly(SOLVERS, 204, { outsider: 404 }),
       },
       { method: 'GET', pattern: '/api/formulas/:id/compare', url: `${base}/compare?a=${f.versionId}&b=${f.approvedId}`, expect: allowOnly(READERS, 200, { outsider: 404 }) },
     ];

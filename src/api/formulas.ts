@@ -7,6 +7,7 @@ import type {
   FormulaDetail,
   FormulaInputsInput,
   FormulaPriceSweep,
+  FormulaRemoval,
   FormulaSolve,
   FormulaSummary,
   UpdateFormulaInput,
@@ -25,6 +26,7 @@ export const formulaKeys = {
   compare: (id: number, a: number, b: number) => [...formulaKeys.all, 'compare', id, a, b] as const,
   choices: (specificationId?: number) => [...formulaKeys.all, 'choices', specificationId ?? 0] as const,
   approved: () => [...formulaKeys.all, 'approved'] as const,
+  removal: (id: number) => [...formulaKeys.all, 'removal', id] as const,
 };
 
 export const formulasQueryOptions = () =>
@@ -113,3 +115,23 @@ export const useFormulaPriceSweepMutation = (id: number) =>
     mutationFn: (input: { ingredientId: number; inputs: FormulaInputsInput; fromPrice?: number; toPrice?: number }) =>
       apiClient.post<FormulaPriceSweep>(`/api/formulas/${id}/price-sweep`, { steps: 41, ...input }),
   });
+
+/** What deleting the formula would do, or what holds it; read fresh each time the question is asked. */
+export const useFormulaRemovalQuery = (id: number, enabled: boolean) =>
+  useQuery({
+    queryKey: formulaKeys.removal(id),
+    queryFn: ({ signal }) => apiClient.get<FormulaRemoval>(`/api/formulas/${id}/removal`, signal),
+    staleTime: 0,
+    gcTime: 0,
+    enabled,
+  });
+
+/** Deletes a formula never approved, with its versions; a 409 `in_use` names what holds it. */
+export function useFormulaDeleteMutation(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => apiClient.delete<void>(`/api/formulas/${id}`),
+    // The screen leaves the formula at once; its cached detail goes stale with it and is never shown again.
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: formulaKeys.list() }),
+  });
+}

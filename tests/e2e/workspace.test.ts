@@ -1,12 +1,14 @@
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
 import { after, before, describe, test } from 'node:test';
-import { and, eq, isNull } from 'drizzle-orm';
+import { and, eq, isNotNull, isNull } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
 
 import { DEMO_PASSWORD } from '../../server/db/demo/accounts';
-import { formulas, ingredients, organizations, specifications } from '../../server/db/schema';
+import { createFormula, keepVersion } from '../../server/db/queries/formulas';
+import { formulas, formulaVersions, ingredients, organizations, specifications, users } from '../../server/db/schema';
 import { seedDemoData } from '../../server/db/seed';
+import { createFormulaInput } from '../../src/shared/schemas/formulas';
 import { WEB_DIST } from '../../server/index';
 import { startTestApp, type TestApp } from '../helpers/app';
 import { launchBrowser, PHONE, signInThroughForm, TEST_OUTPUT, WIDE } from '../helpers/browser';
@@ -35,6 +37,7 @@ describe('formula workspace in the browser', () => {
     ids.meal = (await db.select().from(ingredients).where(and(eq(ingredients.organizationId, mill.id), eq(ingredients.name, 'Larvae meal, partially defatted (Orrin Hollow contract)'))))[0].id;
     ids.demoGrower = (await db.select().from(formulas).where(eq(formulas.name, 'Broiler grower with larvae meal')))[0].id;
     ids.demoFinisher = (await db.select().from(formulas).where(eq(formulas.name, 'Broiler finisher without added fat')))[0].id;
+    ids.mill = mill.id;
     browser = await launchBrowser();
   });
   after(async () => {
@@ -152,5 +155,62 @@ describe('formula workspace in the browser', () => {
     await op.emulateMedia({ media: 'print' });
     assert.ok(await visible(op, 'caution-banner').isVisible());
     await op.close();
+  });
+
+  test('at 375 px: a draft is deleted after a second, inline step that says what goes; at 1280 px an approved formula says what holds it', async () => {
+    const db = t.database.db;
+    const [idris] = await db.select().from(users).where(eq(users.email, NUTRITIONIST));
+    const draftInput = createFormulaInput.parse({ name: 'Grower draft to drop', specificationId: ids.grower, ingredients: ['maize', 'soybean-meal-48', 'soybean-oil', 'limestone', 'dicalcium-phosphate', 'salt', 'l-lysine-hcl', 'dl-methionine', 'l-threonine'].map((code) => ({ ingredientId: ids[code] })) });
+    const draftId = await createFormula(db, ids.mill, idris.id, draftInput);
+    await keepVersion(db, ids.mill, idris.id, draftId, undefined, 'first try');
+
+    const page = await browser.newPage({ viewport: PHONE });
+    await signInThroughForm(page, t.server.baseUrl, NUTRITIONIST, DEMO_PASSWORD);
+    await visible(page, `formula-${draftId}`).waitFor();
+    await page.goto(`${t.server.baseUrl}/?formula=${draftId}`);
+    await visible(page, 'screen-formula').waitFor();
+    // First step: nothing is deleted yet; the card says exactly what would go.
+    await visible(page, 'remove-formula').click();
+    await visible(page, 'remove-formula-consequence').waitFor();
+    assert.equal(
+      await visible(page, 'remove-formula-consequence').innerText(),
+      'Deleting “Grower draft to drop” removes it for good with its current inputs and its 1 kept version (none approved, none shared, no batch recorded). This cannot be undone.',
+    );
+    assert.match(await visible(page, 'remove-formula-card').innerText(), /Delete “Grower draft to drop”\?/);
+    const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
+    assert.ok(scrollWidth <= PHONE.width, `page is ${scrollWidth} px wide at ${PHONE.width} px`);
+    const confirm = await visible(page, 'remove-formula-confirm').boundingBox();
+    assert.ok(confirm && confirm.height >= 48, 'the confirming button is a full touch target');
+    await visible(page, 'remove-formula-card').screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-remove-confirm.png') });
+    // Keep it: the card closes and the formula is untouched.
+    await visible(page, 'remove-formula-cancel').click();
+    await visible(page, 'remove-formula-card').waitFor({ state: 'detached' });
+    assert.equal((await db.select().from(formulas).where(eq(formulas.id, draftId))).length, 1);
+    // Second time through: delete it. The list says so and no longer shows it; its version went with it.
+    await visible(page, 'remove-formula').click();
+    await visible(page, 'remove-formula-confirm').click();
+    await visible(page, 'formula-removed').waitFor();
+    assert.equal(await visible(page, 'formula-removed').innerText(), '“Grower draft to drop” was deleted with its kept versions.');
+    assert.equal(await page.locator(`[data-testid="formula-${draftId}"]:visible`).count(), 0);
+    assert.equal((await db.select().from(formulas).where(eq(formulas.id, draftId))).length, 0);
+    assert.equal((await db.select().from(formulaVersions).where(eq(formulaVersions.formulaId, draftId))).length, 0);
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-phone-removed.png'), fullPage: true });
+    await page.close();
+
+    // An approved formula: the same first step tells what holds it, and offers no delete.
+    const [approved] = await db.select({ formulaId: formulaVersions.formulaId }).from(formulaVersions).where(and(eq(formulaVersions.organizationId, ids.mill), isNotNull(formulaVersions.approvedAt)));
+    const wide = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(wide, t.server.baseUrl, NUTRITIONIST, DEMO_PASSWORD);
+    await wide.goto(`${t.server.baseUrl}/?formula=${approved.formulaId}`);
+    await visible(wide, 'screen-formula').waitFor();
+    await visible(wide, 'remove-formula').click();
+    await visible(wide, 'remove-formula-held').waitFor();
+    assert.match(await visible(wide, 'remove-formula-held').innerText(), /cannot be deleted: version \d+ is the approved version the mill makes batches from[\s\S]*must keep working[\s\S]*• Version \d+, approved by .*: the mill makes batches from it/);
+    assert.equal(await wide.locator('[data-testid="remove-formula-confirm"]:visible').count(), 0, 'no way to delete it');
+    await visible(wide, 'remove-formula-card').screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-remove-held.png') });
+    await visible(wide, 'remove-formula-cancel').click();
+    await visible(wide, 'remove-formula-card').waitFor({ state: 'detached' });
+    assert.equal((await db.select().from(formulas).where(eq(formulas.id, approved.formulaId))).length, 1);
+    await wide.close();
   });
 });

@@ -1,10 +1,11 @@
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
-import { useRouter } from 'expo-router';
+import { useLocalSearchParams, useRouter } from 'expo-router';
 
 import { useFormulasQuery } from '@/api/formulas';
 import { useActiveMembership } from '@/api/session';
 import { ErrorState } from '@/components/error-state';
+import { FormMessage } from '@/components/form-message';
 import { Screen } from '@/components/screen';
 import { Button } from '@/components/ui/button';
 import { AppText, Figure } from '@/components/ui/text';
@@ -22,6 +23,8 @@ export function FormulaList() {
   const { can } = useActiveMembership();
   const router = useRouter();
   const [creating, setCreating] = useState(false);
+  // Set by the workspace after a formula was deleted, so the list says what happened.
+  const { removed } = useLocalSearchParams<{ removed?: string }>();
   // The new formula's batch starts in kg or lb: open the form once the settings are known.
   const unitsReady = useUnitsReady();
 
@@ -37,6 +40,7 @@ export function FormulaList() {
           </View>
         )
       ) : null}
+      <FormMessage tone="ok" text={removed ? `“${removed}” was deleted with its kept versions.` : null} testID="formula-removed" />
       {formulas.isPending ? <AppText muted>Loading formulas…</AppText> : null}
       {formulas.isError ? <ErrorState error={formulas.error} onRetry={() => formulas.refetch()} /> : null}
       {formulas.data?.length === 0 ? <AppText muted>No formulas yet. Start one with “New formula”.</AppText> : null}

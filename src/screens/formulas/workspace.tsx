@@ -22,6 +22,7 @@ import { InsectValue } from './insect-value';
 import { inputsFromValues, InputsForm, inputsSchemaFor, valuesFromFormula, type InputValues } from './inputs-form';
 import { ShareCard } from '@/screens/shared-result/share-card';
 
+import { RemoveFormula } from './remove-formula';
 import { ResultPanel } from './result-panel';
 import { VersionsPanel } from './versions-panel';
 
@@ -186,6 +187,7 @@ function Workspace({ formula, units }: { formula: FormulaDetail; units: Units })
           {inputs}
         </View>
       )}
+      {can('formulas:solve') ? <RemoveFormula formulaId={formula.id} formulaName={formula.name} onRemoved={(name) => router.replace(`/?removed=${encodeURIComponent(name)}`)} /> : null}
     </Screen>
   );
 }

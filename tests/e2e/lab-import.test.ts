@@ -5,6 +5,7 @@ import { after, before, describe, test } from 'node:test';
 import type { Browser, Page } from 'playwright-core';
 
 import { createIngredient } from '../../server/db/queries/ingredients';
+import { REFERENCE_FIBRE_STEP } from '../../server/db/reference-data/fibre-fractions';
 import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../server/db/seed';
 import { WEB_DIST } from '../../server/index';
 import { createIngredientInput } from '../../src/shared/schemas/ingredients';
@@ -22,7 +23,7 @@ describe('lab import in the browser', () => {
 
   before(async () => {
     t = await startTestApp('e2e_lab_import', { webDist: WEB_DIST });
-    await seedDemoData(t.database.db, [REFERENCE_LIBRARY_STEP]);
+    await seedDemoData(t.database.db, [REFERENCE_LIBRARY_STEP, REFERENCE_FIBRE_STEP]);
     const org = await createOrganization(t.database.db, 'Hollow Larvae Farm', 'farm');
     const advisor = await createUser(t.database.db, { email: 'advisor@hollow.example', name: 'Advisor Person', organizationId: org.id, role: 'advisor' });
     meal = await createIngredient(t.database.db, org.id, advisor.id, createIngredientInput.parse({
@@ -61,6 +62,10 @@ describe('lab import in the browser', () => {
     // Correct a mapping: cystine not imported, so Met + Cys is no longer calculated.
     assert.equal(await visible(page, 'value-OH-0312-metcys').count(), 1);
     const cystineRow = page.locator('[data-testid^="map-row-"]:visible', { hasText: 'Cystine %' });
+    // With NDF and ADF in the catalogue, each is offered once, as a nutrient (not also as an estimate-only input).
+    const choices = await cystineRow.locator('select').first().locator('option').allInnerTexts();
+    assert.ok(choices.includes('Acid detergent fibre (ADF) (%)') && choices.includes('Neutral detergent fibre (NDF) (%)'), choices.join(' | '));
+    assert.deepEqual(choices.filter((c) => /\b(ADF|NDF)\b/.test(c)).length, 2, choices.join(' | '));
     await cystineRow.locator('select').first().selectOption('ignore');
     await visible(page, 'value-OH-0312-metcys').waitFor({ state: 'detached' });
 

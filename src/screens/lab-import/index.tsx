@@ -31,6 +31,16 @@ const AUX_LABELS: Record<string, string> = { 'aux:moisture': 'Moisture (gives dr
 
 const today = () => new Date().toISOString().slice(0, 10);
 
+/**
+ * ADF and NDF were only inputs to the pig energy equations before the catalogue held them; once it does, the
+ * nutrient is the one choice (a lab's remembered mapping to the old target still shows, so it can be changed).
+ */
+function supersededAux(target: string, preview: LabImportPreviewResponse, mapping: ColumnMapping | undefined): boolean {
+  const nutrient = target === 'aux:adf' ? 'adf' : target === 'aux:ndf' ? 'ndf' : null;
+  if (!nutrient || !preview.catalogue.some((n) => n.id === nutrient)) return false;
+  return !preview.fields.some((field) => (mapping?.[field.key] ?? field.mapping).target === target);
+}
+
 /** Upload a lab's CSV, map its columns, check it and save it as a new ingredient or a dated analysis of one. */
 export function LabImportScreen() {
   const session = useSessionQuery();
@@ -224,9 +234,9 @@ function MappingList({ preview, mapping, onChange }: { preview: LabImportPreview
       { value: 'sample_name', label: 'Sample name', group: 'The sample' },
       { value: 'analysed_on', label: 'Date analysed', group: 'The sample' },
       ...preview.catalogue.map((n) => ({ value: n.id, label: `${n.name} (${n.unit})`, group: 'Nutrients' })),
-      ...AUX_TARGETS.map((t) => ({ value: t, label: AUX_LABELS[t], group: 'Used for estimates' })),
+      ...AUX_TARGETS.filter((t) => !supersededAux(t, preview, mapping)).map((t) => ({ value: t, label: AUX_LABELS[t], group: 'Used for estimates' })),
     ],
-    [preview.catalogue],
+    [preview, mapping],
   );
   const units = SOURCE_UNITS.map((u) => ({ value: u, label: u }));
   return (

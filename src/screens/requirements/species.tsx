@@ -173,14 +173,14 @@ function PhaseForm({ list, formRef, onAdded }: { list: Species[]; formRef: RefOb
       .trim()
       .required('Name the phase, e.g. Starter.')
       .max(120, 'At most 120 characters.')
-      .test('unique', 'This species already has a phase with this name: choose another name.', function unique(name) {
-        const owner = list.find((s) => String(s.id) === (this.parent as PhaseValues).speciesId);
+      .test('unique', 'This species already has a phase with this name: choose another name.', (name, context) => {
+        const owner = list.find((s) => String(s.id) === (context.parent as PhaseValues).speciesId);
         return !owner?.phases.some((p) => sameName(p.name, name ?? ''));
       }),
     span: yup.string().max(120, 'At most 120 characters.'),
     from: bandEnd(true),
-    to: bandEnd(false).test('order', 'The phase must end after it starts.', function order(text) {
-      const { band, from } = this.parent as PhaseValues;
+    to: bandEnd(false).test('order', 'The phase must end after it starts.', (text, context) => {
+      const { band, from } = context.parent as PhaseValues;
       return band === 'none' || blank(text) || blank(from) || !(decimal(text!) <= decimal(from));
     }),
   });

@@ -372,6 +372,59 @@ describe('formulas API', () => {
     });
   });
 
+  describe('saving a formula while one of its ingredients is deleted', () => {
+    test('one of the two wins cleanly, round after round: never a formula naming a deleted ingredient', async () => {
+      const db = app.database.db;
+      const base = (await nutritionist.call('POST', '/api/formulas', growerBody({ name: 'Race grower' }))).body as FormulaDetail;
+      const outcomes = { saved: 0, deleted: 0 };
+      for (let round = 0; round < 20; round++) {
+        const made = await nutritionist.call('POST', '/api/ingredients', { name: `Race barley ${round}`, category: 'cereal_grain', pricePerKg: 0.2 });
+        assert.equal(made.status, 201, JSON.stringify(made.body));
+        const ingredientId = (made.body as { id: number }).id;
+        const withIt = [...base.inputs.ingredients, { ingredientId }];
+        // Even rounds edit a formula (PUT), odd rounds create one (POST); the two requests start together, in turn first.
+        const save = () =>
+          round % 2 === 0
+            ? nutritionist.call('PUT', `/api/formulas/${base.id}`, { inputs: { ...base.inputs, ingredients: withIt } })
+            : nutritionist.call('POST', '/api/formulas', growerBody({ name: `Race formula ${round}`, ingredients: withIt.map(({ ingredientId: id }) => ({ ingredientId: id })) }));
+        const remove = () => nutritionist.call('DELETE', `/api/ingredients/${ingredientId}`);
+        const [saved, deleted] = round % 4 < 2 ? await Promise.all([save(), remove()]) : await (async () => {
+          const d = remove();
+          const s = save();
+          return [await s, await d];
+        })();
+        const exists = (await db.select({ n: count() }).from(ingredients).where(eq(ingredients.id, ingredientId)))[0].n === 1;
+        if (saved.status === 200 || saved.status === 201) {
+          outcomes.saved++;
+          assert.equal(deleted.status, 409, `round ${round}: the save won, so the delete must be refused: ${JSON.stringify(deleted.body)}`);
+          assert.match(deleted.body.error.message, /was not deleted: it is used in the formula/);
+          assert.ok(exists, `round ${round}: the ingredient is still in the library`);
+        } else {
+          outcomes.deleted++;
+          assert.equal(deleted.status, 204, `round ${round}: neither request succeeded (save ${saved.status}, delete ${deleted.status})`);
+          assert.equal(saved.status, 400, `round ${round}: ${JSON.stringify(saved.body)}`);
+          assert.match(JSON.stringify(saved.body.error.fieldErrors), new RegExp(`no ingredient with id ${ingredientId} in your library`));
+          assert.ok(!exists);
+        }
+      }
+      // The invariant over the whole mill: every ingredient any formula names is in the library.
+      const rows = await db.select({ name: formulas.name, inputs: formulas.inputs }).from(formulas).where(eq(formulas.organizationId, millId));
+      const ids = new Set((await db.select({ id: ingredients.id }).from(ingredients)).map((r) => r.id));
+      for (const f of rows) for (const i of f.inputs.ingredients) assert.ok(ids.has(i.ingredientId), `${f.name} names ingredient ${i.ingredientId}, which is gone`);
+      assert.equal(outcomes.saved + outcomes.deleted, 20);
+    });
+
+    test('keeping a version with new inputs refuses an ingredient deleted since, and keeps nothing', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody({ name: 'Keep after delete' }))).body as FormulaDetail;
+      const made = (await nutritionist.call('POST', '/api/ingredients', { name: 'Barley kept too late', category: 'cereal_grain', pricePerKg: 0.2 })).body as { id: number };
+      assert.equal((await nutritionist.call('DELETE', `/api/ingredients/${made.id}`)).status, 204);
+      const { status, body } = await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, { inputs: { ...f.inputs, ingredients: [...f.inputs.ingredients, { ingredientId: made.id }] } });
+      assert.equal(status, 400);
+      assert.match(JSON.stringify(body.error.fieldErrors), /no ingredient with id \d+ in your library/);
+      assert.equal(await versionCount(f.id), 0);
+    });
+  });
+
   test('another organization’s formula answers 404', async () => {
     const [f] = await app.database.db.select().from(formulas).where(eq(formulas.organizationId, millId));
     assert.equal((await outsider.call('GET', `/api/formulas/${f.id}`)).status, 404);

@@ -51,14 +51,22 @@ type SweepInput = z.output<typeof formulaPriceSweepInput>;
 // Library reads (read-only helpers over the library tables)
 // ---------------------------------------------------------------------------
 
-/** The chosen ingredients this organization can see (own or reference), with every value per kg as fed. */
-async function loadLibrary(db: Db, organizationId: number, ids: number[]): Promise<Map<number, LibraryIngredient>> {
+/**
+ * The chosen ingredients this organization can see (own or reference), with every value per kg as fed.
+ * With `lock` (inside a transaction that writes a formula's inputs) the ingredient rows are read with
+ * FOR UPDATE: deleting an ingredient locks its row the same way before it looks for formulas using it,
+ * so a save and a delete of the same ingredient run one after the other and the second sees the first.
+ * (MariaDB has no FOR SHARE; the lock lasts only as long as the save's short transaction.)
+ */
+async function loadLibrary(db: Db, organizationId: number, ids: number[], lock = false): Promise<Map<number, LibraryIngredient>> {
   const out = new Map<number, LibraryIngredient>();
   if (ids.length === 0) return out;
-  const rows = await db
+  const query = db
     .select()
     .from(ingredients)
-    .where(and(inArray(ingredients.id, ids), or(isNull(ingredients.organizationId), eq(ingredients.organizationId, organizationId))));
+    .where(and(inArray(ingredients.id, ids), or(isNull(ingredients.organizationId), eq(ingredients.organizationId, organizationId))))
+    .orderBy(asc(ingredients.id));
+  const rows = lock ? await query.for('update') : await query;
   const values = rows.length ? await db.select().from(ingredientNutrientValues).where(inArray(ingredientNutrientValues.ingredientId, rows.map((r) => r.id))) : [];
   for (const r of rows) {
     out.set(r.id, {
@@ -219,13 +227,17 @@ export async function getFormula(db: Db, organizationId: number, id: number): Pr
   return { ...summary, inputs: row.inputs, labels: { ingredients: ingredientLabels, nutrients: [...(await loadNutrientInfo(db)).values()] } };
 }
 
-/** Checks what a formula's inputs name against the library: the same refusals a solve would give. */
-async function checkInputs(db: Db, organizationId: number, inputs: FormulaInputs, speciesOf: { name: string; family: 'poultry' | 'swine' } | null) {
-  const library = await loadLibrary(db, organizationId, inputs.ingredients.map((i) => i.ingredientId));
+/**
+ * Checks what a formula's inputs name against the library: the same refusals a solve would give. Runs
+ * inside the transaction that saves the inputs and locks the ingredient rows it reads (see loadLibrary),
+ * so no ingredient can be deleted between this check and the save's commit.
+ */
+async function checkInputs(tx: Db, organizationId: number, inputs: FormulaInputs, speciesOf: { name: string; family: 'poultry' | 'swine' } | null) {
+  const library = await loadLibrary(tx, organizationId, inputs.ingredients.map((i) => i.ingredientId), true);
   const built = buildFormulaProblem(
     // Prices are asked for at solve time, not when saving a draft.
     { ...inputs, ingredients: inputs.ingredients.map((i) => ({ ...i, pricePerKg: i.pricePerKg ?? 0 })) },
-    { library, nutrients: await loadNutrientInfo(db), species: speciesOf },
+    { library, nutrients: await loadNutrientInfo(tx), species: speciesOf },
   );
   if (!built.ok) throw badRequest(built.message, built.fieldErrors);
 }
@@ -248,24 +260,27 @@ export async function createFormula(db: Db, organizationId: number, userId: stri
     ratios: input.ratios ?? filled.ratios,
     groups: input.groups ?? filled.groups,
   };
-  await checkInputs(db, organizationId, inputs, spec.species);
-  const [{ id }] = await db
-    .insert(formulas)
-    .values({ organizationId, name: input.name, speciesId: spec.species.id, specificationId: spec.id, inputs, createdByUserId: userId })
-    .$returningId();
-  return id;
+  return db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    await checkInputs(t, organizationId, inputs, spec.species);
+    const [{ id }] = await t
+      .insert(formulas)
+      .values({ organizationId, name: input.name, speciesId: spec.species.id, specificationId: spec.id, inputs, createdByUserId: userId })
+      .$returningId();
+    return id;
+  });
 }
 
 export async function updateFormula(db: Db, organizationId: number, id: number, input: UpdateInput): Promise<void> {
   const row = await findFormula(db, organizationId, id);
   const { species } = await speciesOfSpecification(db, organizationId, row.specificationId);
-  await checkInputs(db, organizationId, input.inputs, species);
   await db.transaction(async (tx) => {
     const [locked] = await tx.select().from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId))).for('update');
     if (!locked) throw notFound('formula', id);
     if (input.expectedRevision !== undefined && input.expectedRevision !== locked.revision) {
       throw new HttpError(409, 'version_conflict', `This formula was changed by someone else since you opened it (now revision ${locked.revision}). Reload it; your edit was not saved.`);
     }
+    await checkInputs(tx as unknown as Db, organizationId, input.inputs, species);
     await tx.update(formulas).set({ name: input.name ?? locked.name, inputs: input.inputs, revision: locked.revision + 1 }).where(eq(formulas.id, id));
   });
 }
@@ -403,7 +418,14 @@ export async function keepVersion(db: Db, organizationId: number, userId: string
   return db.transaction(async (tx) => {
     const [locked] = await tx.select({ id: formulas.id, revision: formulas.revision, name: formulas.name }).from(formulas).where(eq(formulas.id, id)).for('update');
     if (!locked) throw notFound('formula', id);
-    if (inputs) await tx.update(formulas).set({ inputs, revision: locked.revision + 1 }).where(eq(formulas.id, id));
+    if (inputs) {
+      // The solve above read the library outside this transaction: before these inputs become the
+      // formula's, make sure (under the same lock a delete takes) that every ingredient is still there.
+      const present = await loadLibrary(tx as unknown as Db, organizationId, inputs.ingredients.map((i) => i.ingredientId), true);
+      const gone = inputs.ingredients.map((i, k) => [i.ingredientId, k] as const).filter(([ingredientId]) => !present.has(ingredientId));
+      if (gone.length) throw badRequest(`No ingredient with id ${gone[0][0]} in your library any more: it was deleted meanwhile. Take it out of the formula and keep the version again.`, Object.fromEntries(gone.map(([ingredientId, k]) => [`ingredients[${k}].ingredientId`, [`no ingredient with id ${ingredientId} in your library`]])));
+      await tx.update(formulas).set({ inputs, revision: locked.revision + 1 }).where(eq(formulas.id, id));
+    }
     const [{ last }] = await tx.select({ last: max(formulaVersions.number) }).from(formulaVersions).where(eq(formulaVersions.formulaId, id));
     const status = solved.result.status as FormulaVersionRow['status'];
     const [{ id: versionId }] = await tx

@@ -24,8 +24,15 @@ export const formulas = mysqlTable(
     createdByUserId: varchar({ length: 40 }).references(() => users.id, { onDelete: 'set null' }),
     createdAt: timestamp().notNull().defaultNow(),
     updatedAt: timestamp().notNull().defaultNow().onUpdateNow(),
+    /**
+     * Set when the formula was taken out of the mill's daily view (archived): it is then read-only and
+     * its approved version leaves the operators' list, while batch sheets, the batch log and shared
+     * links keep working. Null while the formula is in use.
+     */
+    archivedAt: timestamp({ fsp: 3 }),
+    archivedBy: varchar({ length: 40 }).references(() => users.id, { onDelete: 'set null' }),
   },
-  (t) => [index('formulas_org_name').on(t.organizationId, t.name)],
+  (t) => [index('formulas_org_name').on(t.organizationId, t.name), index('formulas_org_archived').on(t.organizationId, t.archivedAt)],
 );
 
 export const VERSION_STATUSES = ['optimal', 'infeasible', 'unbounded', 'failed'] as const;

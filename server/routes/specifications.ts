@@ -42,7 +42,7 @@ export function specificationsRouter({ db }: { db: Db }): Router {
   router.post('/:id/copy', access.member('requirements:write'), async (req, res) => {
     const { organizationId } = requireMembership(req);
     const { id } = idParams.parse(req.params);
-    const newId = await copySpecification(db, organizationId, id, copySpecificationInput.parse(req.body ?? {}).name);
+    const newId = await copySpecification(db, organizationId, id, copySpecificationInput.parse(req.body ?? {}));
     res.status(201).json(await getSpecification(db, organizationId, newId));
   });
 

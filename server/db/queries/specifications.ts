@@ -1,18 +1,19 @@
-import { and, asc, count, eq, inArray, isNull, like, or, type SQL } from 'drizzle-orm';
+import { and, asc, count, eq, inArray, isNull, like, or, sql, type SQL } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import { checkInsectSubstrate } from '../../../src/shared/insect-rule';
 import type { Page } from '../../../src/shared/schemas/library-common';
+import type { SpeciesFamily } from '../../../src/shared/library-terms';
 import type {
+  copySpecificationInput,
   createSpecificationInput,
   listSpecificationsQuery,
   SpecificationDetail,
   SpecificationSummary,
   updateSpecificationInput,
 } from '../../../src/shared/schemas/specifications';
-import { badRequest, notFound } from '../../http/errors';
+import { badRequest, HttpError, notFound } from '../../http/errors';
 import type { Db } from '../client';
-import { copySpecificationToOrganization } from '../reference-data/seed-library';
 import {
   ingredients,
   nutrients,
@@ -22,6 +23,8 @@ import {
   specificationNutrients,
   specificationRatios,
   specifications,
+  type PhaseRow,
+  type SpeciesRow,
   type SpecificationRow,
 } from '../schema';
 import { likePattern, readOnlyReference, versionConflict } from './library-shared';
@@ -229,7 +232,67 @@ export async function deleteSpecification(db: Db, organizationId: number, id: nu
   });
 }
 
-export async function copySpecification(db: Db, organizationId: number, id: number, name?: string): Promise<number> {
-  await findVisible(db, organizationId, id);
-  return db.transaction(async (tx) => copySpecificationToOrganization(tx as unknown as Db, organizationId, id, name));
+const FAMILY_BASIS: Record<SpeciesFamily, string> = { poultry: 'poultry (AMEn, total or digestible amino acids)', swine: 'pig (NE, SID amino acids, STTD phosphorus)' };
+
+/** The phase a copy goes into, with its species; a phase the organization cannot see is a 400 on `phaseId`. */
+async function targetPhase(tx: Db, organizationId: number, phaseId: number): Promise<{ phase: PhaseRow; species: SpeciesRow }> {
+  const visiblePhase = or(isNull(phases.organizationId), eq(phases.organizationId, organizationId));
+  const visibleSpecies = or(isNull(species.organizationId), eq(species.organizationId, organizationId));
+  const [row] = await tx.select({ phase: phases, species }).from(phases).innerJoin(species, eq(species.id, phases.speciesId)).where(and(eq(phases.id, phaseId), visiblePhase, visibleSpecies));
+  if (!row) {
+    const message = `No phase with id ${phaseId} among the reference species and your organization’s own: choose a phase from the list.`;
+    throw badRequest(message, { phaseId: [message] });
+  }
+  return row;
+}
+
+/**
+ * Copies a visible specification into the organization: every nutrient bound, ratio and cap (with
+ * their confidence, notes and cited studies) in one transaction, recording the source in `copiedFromId`.
+ * With `phaseId` the copy goes into that phase, which may belong to another species of the same family;
+ * a pig phase for a poultry specification (or the reverse) is refused, since their nutrient bases differ.
+ * A string in place of the input is the copy's name.
+ */
+export async function copySpecification(db: Db, organizationId: number, id: number, nameOrInput: string | z.output<typeof copySpecificationInput> = {}): Promise<number> {
+  const input = typeof nameOrInput === 'string' ? { name: nameOrInput } : nameOrInput;
+  return db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    // A shared lock waits for a save in progress, so the copy never mixes rows from before and after it
+    // (MariaDB spells it LOCK IN SHARE MODE; it has no FOR SHARE).
+    await t.execute(sql`select ${specifications.id} from ${specifications} where ${specifications.id} = ${id} lock in share mode`);
+    const [source] = await t.select().from(specifications).where(and(eq(specifications.id, id), visibleTo(organizationId)));
+    if (!source) throw notFound('specification', id);
+    let speciesId = source.speciesId;
+    let phaseId = source.phaseId;
+    let name = input.name ?? source.name;
+    let notes = source.notes;
+    if (input.phaseId != null && input.phaseId !== source.phaseId) {
+      const target = await targetPhase(t, organizationId, input.phaseId);
+      const [from] = await t.select().from(species).where(eq(species.id, source.speciesId));
+      if (from.family !== target.species.family) {
+        const message =
+          `“${source.name}” is a ${FAMILY_BASIS[from.family]} specification and ${target.species.name} is ${from.family === 'poultry' ? 'a pig species' : 'a poultry species'}: ` +
+          `its bounds would be on the wrong basis. Copy a ${target.species.family === 'swine' ? 'pig' : 'poultry'} specification into this phase, or start an empty one.`;
+        throw new HttpError(400, 'family_mismatch', message, { phaseId: [message] });
+      }
+      const [fromPhase] = source.phaseId ? await t.select().from(phases).where(eq(phases.id, source.phaseId)) : [null];
+      const wasFor = [from.name, fromPhase ? `${fromPhase.name}${fromPhase.span ? `, ${fromPhase.span}` : ''}` : null].filter(Boolean).join(', ');
+      const origin = `Copied from “${source.name}” (${wasFor}): its bounds were set for that phase. Check each one for ${target.species.name}, ${target.phase.name}${target.phase.span ? ` (${target.phase.span})` : ''}.`;
+      notes = [origin, source.notes].filter(Boolean).join('\n\n').slice(0, 2000);
+      speciesId = target.species.id;
+      phaseId = target.phase.id;
+      name = input.name ?? `${target.species.name}, ${target.phase.name} (from ${source.name})`.slice(0, 160);
+    }
+    const [{ id: copyId }] = await t
+      .insert(specifications)
+      .values({ organizationId, copiedFromId: source.id, speciesId, phaseId, name, source: source.source, notes, feedIntakeGPerDay: source.feedIntakeGPerDay })
+      .$returningId();
+    const bounds = await t.select().from(specificationNutrients).where(eq(specificationNutrients.specificationId, id)).orderBy(asc(specificationNutrients.id));
+    if (bounds.length) await t.insert(specificationNutrients).values(bounds.map(({ id: _b, ...b }) => ({ ...b, specificationId: copyId })));
+    const ratios = await t.select().from(specificationRatios).where(eq(specificationRatios.specificationId, id)).orderBy(asc(specificationRatios.id));
+    if (ratios.length) await t.insert(specificationRatios).values(ratios.map(({ id: _r, ...r }) => ({ ...r, specificationId: copyId })));
+    const caps = await t.select().from(specificationCaps).where(eq(specificationCaps.specificationId, id)).orderBy(asc(specificationCaps.id));
+    if (caps.length) await t.insert(specificationCaps).values(caps.map(({ id: _k, ...k }) => ({ ...k, specificationId: copyId })));
+    return copyId;
+  });
 }

@@ -98,7 +98,15 @@ export const updateSpecificationInput = z
   .superRefine(noDuplicateBounds);
 export type UpdateSpecificationInput = z.input<typeof updateSpecificationInput>;
 
-export const copySpecificationInput = z.strictObject({ name: specificationFields.name.optional() });
+/**
+ * POST /api/specifications/:id/copy. Without `phaseId` the copy keeps its source's species and phase; with
+ * it, the copy goes into that phase (of the same species, or of another species of the same family).
+ */
+export const copySpecificationInput = z.strictObject({
+  name: specificationFields.name.optional(),
+  phaseId: z.number({ message: 'choose the phase to copy into' }).int().positive().nullish(),
+});
+export type CopySpecificationInput = z.input<typeof copySpecificationInput>;
 
 export const createSpeciesInput = z.strictObject({
   name: z.string().trim().min(1, 'name the species').max(120),

@@ -1,10 +1,11 @@
 import { Router } from 'express';
 
 import { idParams } from '../../src/shared/schemas/library-common';
-import { choicesQuery, compareQuery, createFormulaInput, formulaPriceSweepInput, keepVersionInput, solveFormulaInput, updateFormulaInput, versionParams } from '../../src/shared/schemas/formulas';
+import { choicesQuery, compareQuery, createFormulaInput, formulaPriceSweepInput, keepVersionInput, listFormulasQuery, solveFormulaInput, updateFormulaInput, versionParams } from '../../src/shared/schemas/formulas';
 import type { Db } from '../db/client';
 import {
   approveVersion,
+  archiveFormula,
   compareVersions,
   createFormula,
   deleteFormula,
@@ -17,6 +18,7 @@ import {
   listApproved,
   listFormulas,
   listVersions,
+  restoreFormula,
   solveFormulaInputs,
   sweepIngredientPrice,
   updateFormula,
@@ -29,7 +31,8 @@ const approvedParams = idParams;
  * The formula workspace. Planners (formulas:read / formulas:solve) see and solve everything; approving
  * needs formulas:approve. Mill operators hold only formulas:read-approved and reach only /approved: the
  * current approved version of each formula, never drafts or other versions. A formula never approved,
- * with nothing recorded against it, can be deleted; any other is refused with what holds it.
+ * with nothing recorded against it, can be deleted; any other is refused with what holds it, and can
+ * be archived instead: out of the working list and the mill's approved list, read-only, restorable.
  */
 export function formulasRouter({ db }: { db: Db }): Router {
   const router = Router();
@@ -51,7 +54,7 @@ export function formulasRouter({ db }: { db: Db }): Router {
 
   router.get('/', access.member('formulas:read'), async (req, res) => {
     const { organizationId } = requireMembership(req);
-    res.json(await listFormulas(db, organizationId));
+    res.json(await listFormulas(db, organizationId, listFormulasQuery.parse(req.query).archived));
   });
 
   router.post('/', access.member('formulas:solve'), async (req, res) => {
@@ -85,6 +88,23 @@ export function formulasRouter({ db }: { db: Db }): Router {
     const { organizationId } = requireMembership(req);
     await deleteFormula(db, organizationId, idParams.parse(req.params).id);
     res.status(204).end();
+  });
+
+  // Archiving takes a formula, approved version included, out of the mill's daily view: what the mill
+  // makes is a nutritionist's or owner's decision, so it needs 'formulas:approve' (like approving),
+  // and so does bringing it back. An archived formula is read-only until restored.
+  router.post('/:id/archive', access.member('formulas:approve'), async (req, res) => {
+    const { organizationId, userId } = requireMembership(req);
+    const { id } = idParams.parse(req.params);
+    await archiveFormula(db, organizationId, userId, id);
+    res.json(await getFormula(db, organizationId, id));
+  });
+
+  router.post('/:id/restore', access.member('formulas:approve'), async (req, res) => {
+    const { organizationId } = requireMembership(req);
+    const { id } = idParams.parse(req.params);
+    await restoreFormula(db, organizationId, id);
+    res.json(await getFormula(db, organizationId, id));
   });
 
   router.post('/:id/solve', access.member('formulas:solve'), async (req, res) => {

@@ -112,6 +112,29 @@ describe('batch sheets API', () => {
     });
   });
 
+  describe('an archived formula', () => {
+    test('leaves the operator’s approved list, while its batch sheet, CSV and log keep answering; restored, it is back', async () => {
+      const nutritionist = await signInAsDemo(app.server.baseUrl, 'nutritionist@tamsby.example');
+      const starter = ((await operator.call('GET', '/api/formulas/approved')).body as ApprovedFormula[]).find((a) => a.version.id === approvedId)!;
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${starter.formulaId}/archive`)).status, 200);
+      try {
+        assert.ok(!((await operator.call('GET', '/api/formulas/approved')).body as ApprovedFormula[]).some((a) => a.formulaId === starter.formulaId));
+        const { status, body } = await operator.call('GET', `/api/batch-sheets/${approvedId}?batchSize=1000`);
+        assert.equal(status, 200);
+        assert.equal((body as BatchSheetResponse).formulaName, 'Broiler starter');
+        assert.ok(Math.abs(sum((body as BatchSheetResponse).sheet.lines.map((l) => l.amount)) - 1000) <= 0.25 + 1e-9);
+        const csv = await fetch(`${app.server.baseUrl}/api/batch-sheets/${approvedId}/csv`, { headers: { cookie: operator.cookie! } });
+        assert.equal(csv.status, 200);
+        const log = await owner.call('GET', `/api/batches?versionId=${approvedId}`);
+        assert.equal(log.status, 200);
+        assert.ok((log.body as BatchLogEntry[]).every((b) => b.formulaName === 'Broiler starter'));
+      } finally {
+        assert.equal((await nutritionist.call('POST', `/api/formulas/${starter.formulaId}/restore`)).status, 200);
+      }
+      assert.ok(((await operator.call('GET', '/api/formulas/approved')).body as ApprovedFormula[]).some((a) => a.version.id === approvedId));
+    });
+  });
+
   describe('US units', () => {
     test('the sheet and the log read in lb; the log keeps kg exactly (1 lb = 0.45359237 kg)', async () => {
       assert.equal((await owner.call('PUT', '/api/organization-settings', { unitSystem: 'us', currency: 'USD' })).status, 200);

@@ -372,6 +372,110 @@ describe('formulas API', () => {
     });
   });
 
+  describe('archiving and restoring', () => {
+    test('a held formula is archived instead: out of both lists, read-only, while its sheet, log and the farm’s link keep working; restoring brings it back', async () => {
+      // Approved, a batch made from it, a version shared with the farm: every kind of hold at once.
+      const f = (await advisor.call('POST', '/api/formulas', growerBody({ name: 'Grower to archive' }))).body as FormulaDetail;
+      const v1 = (await advisor.call('POST', `/api/formulas/${f.id}/versions`, {})).body as VersionDetail;
+      const v2 = (await advisor.call('POST', `/api/formulas/${f.id}/versions`, { note: 'not approved yet' })).body as VersionDetail;
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/versions/${v1.id}/approve`)).status, 200);
+      assert.equal((await operator.call('POST', '/api/batches', { versionId: v1.id, madeOn: '2026-03-21', batchSize: 1000, operatorName: 'T. Ferro' })).status, 201);
+      const shared = await advisor.call('POST', '/api/shares', { kind: 'formula_version', formulaId: f.id, versionId: v1.id, toOrganizationId: farmId });
+      assert.equal(shared.status, 201, JSON.stringify(shared.body));
+      const token = (shared.body as ShareCreated).token;
+
+      const removal = (await nutritionist.call('GET', `/api/formulas/${f.id}/removal`)).body as FormulaRemoval;
+      assert.equal(removal.removable, false);
+      assert.equal(removal.archiveInstead?.message, 'Archive “Grower to archive” instead: it leaves the formula list and the mill’s list of approved formulas and becomes read-only, while batch sheets, the batch log and shared links keep working. It can be restored at any time.');
+
+      // Only owners and nutritionists decide what leaves the mill's view.
+      assert.equal((await advisor.call('POST', `/api/formulas/${f.id}/archive`)).status, 403);
+      assert.equal((await operator.call('POST', `/api/formulas/${f.id}/archive`)).status, 403);
+      const archived = await nutritionist.call('POST', `/api/formulas/${f.id}/archive`);
+      assert.equal(archived.status, 200, JSON.stringify(archived.body));
+      assert.equal((archived.body as FormulaDetail).archived?.by, 'Idris Okonjo');
+      const again = await nutritionist.call('POST', `/api/formulas/${f.id}/archive`);
+      assert.equal(again.status, 409);
+      assert.equal(again.body.error.code, 'already_archived');
+      assert.match(again.body.error.message, /^“Grower to archive” was already archived by Idris Okonjo on \d{4}-\d{2}-\d{2}\. Nothing changed\.$/);
+      assert.equal(((await nutritionist.call('GET', `/api/formulas/${f.id}/removal`)).body as FormulaRemoval).archiveInstead, null, 'archived already: nothing more to offer');
+
+      // Out of the working list, in the archived one; still readable with its versions.
+      const inUse = (await nutritionist.call('GET', '/api/formulas')).body as FormulaSummary[];
+      assert.ok(!inUse.some((x) => x.id === f.id));
+      assert.ok(inUse.every((x) => x.archived === null));
+      const shelf = (await nutritionist.call('GET', '/api/formulas?archived=true')).body as FormulaSummary[];
+      assert.deepEqual(shelf.map((x) => [x.id, x.archived?.by]), [[f.id, 'Idris Okonjo']]);
+      const detail = await nutritionist.call('GET', `/api/formulas/${f.id}`);
+      assert.equal(detail.status, 200);
+      assert.ok((detail.body as FormulaDetail).archived);
+      assert.equal((await nutritionist.call('GET', `/api/formulas/${f.id}/versions/${v1.id}`)).status, 200);
+      assert.equal((await nutritionist.call('GET', `/api/formulas/${f.id}/compare?a=${v1.id}&b=${v2.id}`)).status, 200);
+
+      // Read-only: every change, solve, keep and approval is refused and nothing is written.
+      const refusals = [
+        await nutritionist.call('PUT', `/api/formulas/${f.id}`, { inputs: { ...f.inputs, batchKg: 2500 } }),
+        await nutritionist.call('POST', `/api/formulas/${f.id}/solve`, {}),
+        await nutritionist.call('POST', `/api/formulas/${f.id}/versions`, {}),
+        await nutritionist.call('POST', `/api/formulas/${f.id}/versions/${v2.id}/approve`),
+        await nutritionist.call('POST', `/api/formulas/${f.id}/price-sweep`, { ingredientId: own.contractMeal, steps: 3 }),
+      ];
+      for (const r of refusals) {
+        assert.equal(r.status, 409, JSON.stringify(r.body));
+        assert.equal(r.body.error.code, 'archived');
+        assert.match(r.body.error.message, /^archived: restore it first\. “Grower to archive” was archived by Idris Okonjo on /);
+      }
+      const [row] = await app.database.db.select().from(formulas).where(eq(formulas.id, f.id));
+      assert.equal(row.inputs.batchKg, 1000);
+      assert.equal(row.revision, f.revision, 'no change was saved');
+      assert.equal(await versionCount(f.id), 2);
+      assert.equal(((await nutritionist.call('GET', `/api/formulas/${f.id}/versions`)).body as VersionDetail[]).find((v) => v.id === v2.id)?.approval, 'not_approved');
+
+      // The mill's approved list drops it; what was handed out keeps answering.
+      assert.ok(!((await operator.call('GET', '/api/formulas/approved')).body as { formulaId: number }[]).some((a) => a.formulaId === f.id));
+      assert.ok(!((await nutritionist.call('GET', '/api/formulas/approved')).body as { formulaId: number }[]).some((a) => a.formulaId === f.id), 'planners see the same mill list');
+      assert.equal((await operator.call('GET', `/api/formulas/approved/${v1.id}`)).status, 200);
+      assert.equal((await operator.call('GET', `/api/batch-sheets/${v1.id}`)).status, 200);
+      const csv = await fetch(`${app.server.baseUrl}/api/batch-sheets/${v1.id}/csv`, { headers: { cookie: operator.cookie! } });
+      assert.equal(csv.status, 200);
+      const log = (await operator.call('GET', `/api/batches?versionId=${v1.id}`)).body as { formulaName: string; madeOn: string }[];
+      assert.deepEqual(log.map((b) => [b.formulaName, b.madeOn]), [['Grower to archive', '2026-03-21']]);
+      assert.equal((await farmer.call('GET', `/api/shares/${token}`)).status, 200);
+      assert.ok(((await farmer.call('GET', '/api/shares')).body as { token: string }[]).some((x) => x.token === token), 'the farm keeps it in its list');
+
+      // Restoring: back in both lists and editable again; restoring twice is refused.
+      assert.equal((await advisor.call('POST', `/api/formulas/${f.id}/restore`)).status, 403);
+      const restored = await nutritionist.call('POST', `/api/formulas/${f.id}/restore`);
+      assert.equal(restored.status, 200);
+      assert.equal((restored.body as FormulaDetail).archived, null);
+      const twice = await nutritionist.call('POST', `/api/formulas/${f.id}/restore`);
+      assert.equal(twice.status, 409);
+      assert.equal(twice.body.error.code, 'not_archived');
+      assert.ok(((await nutritionist.call('GET', '/api/formulas')).body as FormulaSummary[]).some((x) => x.id === f.id));
+      assert.ok(!((await nutritionist.call('GET', '/api/formulas?archived=true')).body as FormulaSummary[]).some((x) => x.id === f.id));
+      assert.equal(((await operator.call('GET', '/api/formulas/approved')).body as { formulaId: number; version: { id: number } }[]).find((a) => a.formulaId === f.id)?.version.id, v1.id);
+      assert.equal((await nutritionist.call('PUT', `/api/formulas/${f.id}`, { inputs: { ...f.inputs, batchKg: 2500 } })).status, 200);
+    });
+
+    test('another organization’s formula answers 404 to archive and restore; a bad list filter answers 400', async () => {
+      const f = (await nutritionist.call('POST', '/api/formulas', growerBody({ name: 'Not theirs to archive' }))).body as FormulaDetail;
+      const [outsiderOwn] = ((await outsider.call('GET', '/api/formulas')).body as FormulaSummary[]).filter((x) => x.id === f.id);
+      assert.equal(outsiderOwn, undefined);
+      assert.equal((await outsider.call('POST', `/api/formulas/${f.id}/archive`)).status, 404);
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${f.id}/archive`)).status, 200);
+      assert.equal((await outsider.call('POST', `/api/formulas/${f.id}/restore`)).status, 404);
+      assert.ok(!((await outsider.call('GET', '/api/formulas?archived=true')).body as FormulaSummary[]).some((x) => x.id === f.id));
+      const [row] = await app.database.db.select().from(formulas).where(eq(formulas.id, f.id));
+      assert.ok(row.archivedAt, 'still archived: the outsider changed nothing');
+      const bad = await nutritionist.call('GET', '/api/formulas?archived=maybe');
+      assert.equal(bad.status, 400);
+      assert.ok(bad.body.error.fieldErrors.archived);
+      // A never-approved draft can be archived too, and still deleted (nothing holds it).
+      assert.equal(((await nutritionist.call('GET', `/api/formulas/${f.id}/removal`)).body as FormulaRemoval).removable, true);
+      assert.equal((await nutritionist.call('DELETE', `/api/formulas/${f.id}`)).status, 204);
+    });
+  });
+
   describe('saving a formula while one of its ingredients is deleted', () => {
     test('one of the two wins cleanly, round after round: never a formula naming a deleted ingredient', async () => {
       const db = app.database.db;

@@ -111,6 +111,22 @@ describe('shares API', () => {
       assert.equal((await stranger.call('GET', `/api/shares/${created.token}/csv`)).status, 404);
     });
 
+    test('keeps opening, and stays in the farm’s list, after the mill archives the formula', async () => {
+      const nutritionist = await signInAsDemo(app.server.baseUrl, 'nutritionist@tamsby.example');
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${approved.formulaId}/archive`)).status, 200);
+      try {
+        const { status, body } = await farmer.call('GET', `/api/shares/${created.token}`);
+        assert.equal(status, 200);
+        assert.equal((body as ShareDetail).payload.kind, 'formula_version');
+        const csv = await fetch(`${app.server.baseUrl}/api/shares/${created.token}/csv`, { headers: { cookie: farmer.cookie! } });
+        assert.equal(csv.status, 200);
+        const worker = await signInAsDemo(app.server.baseUrl, 'worker@orrinhollow.example');
+        assert.ok(((await worker.call('GET', '/api/shares')).body as { token: string }[]).some((s) => s.token === created.token));
+      } finally {
+        assert.equal((await nutritionist.call('POST', `/api/formulas/${approved.formulaId}/restore`)).status, 200);
+      }
+    });
+
     test('the farm lists what was shared with it', async () => {
       await farmer.call('PUT', '/api/auth/active-organization', { organizationId: orrinId });
       const list = (await farmer.call('GET', '/api/shares')).body as { token: string }[];

@@ -134,6 +134,19 @@ async function findFormula(db: Db, organizationId: number, id: number): Promise<
   return row;
 }
 
+const day = (d: Date) => d.toISOString().slice(0, 10);
+
+/**
+ * An archived formula is read-only: changing, solving, keeping and approving answer 409 `archived`
+ * until it is restored. Checked on the locked row wherever something is written, so an archive that
+ * lands meanwhile is seen.
+ */
+async function refuseArchived(db: Db, row: { name: string; archivedAt: Date | null; archivedBy: string | null }): Promise<void> {
+  if (!row.archivedAt) return;
+  const who = row.archivedBy ? await userName(db, row.archivedBy) : 'someone';
+  throw new HttpError(409, 'archived', `archived: restore it first. “${row.name}” was archived by ${who} on ${day(row.archivedAt)}; restore it to change, solve, keep or approve it.`);
+}
+
 /** Versions of some formulas, with each approval marked current (the newest approval) or superseded. */
 function summarizeVersions(rows: FormulaVersionRow[]): VersionSummary[] {
   const current = new Map<number, FormulaVersionRow>();
@@ -195,6 +208,8 @@ async function summaries(db: Db, organizationId: number, rows: FormulaRow[]): Pr
   const specIds = [...new Set(rows.map((r) => r.specificationId).filter((id): id is number => id !== null))];
   const specRows = specIds.length ? await db.select({ id: specifications.id, name: specifications.name }).from(specifications).where(inArray(specifications.id, specIds)) : [];
   const specById = new Map(specRows.map((s) => [s.id, s]));
+  const archiverIds = [...new Set(rows.map((r) => r.archivedBy).filter((id): id is string => id !== null))];
+  const archivers = new Map((archiverIds.length ? await db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(inArray(users.id, archiverIds)) : []).map((u) => [u.id, u.name || u.email]));
   return rows.map((r) => {
     const own = versions.filter((v) => v.formulaId === r.id);
     const s = r.speciesId ? speciesById.get(r.speciesId) : undefined;
@@ -209,13 +224,19 @@ async function summaries(db: Db, organizationId: number, rows: FormulaRow[]): Pr
       updatedAt: r.updatedAt.toISOString(),
       latestVersion: own[0] ?? null,
       approvedVersion: own.find((v) => v.approval === 'current') ?? null,
+      archived: r.archivedAt ? { at: r.archivedAt.toISOString(), by: r.archivedBy ? (archivers.get(r.archivedBy) ?? null) : null } : null,
       versions: own,
     };
   });
 }
 
-export async function listFormulas(db: Db, organizationId: number): Promise<FormulaSummary[]> {
-  const rows = await db.select().from(formulas).where(eq(formulas.organizationId, organizationId)).orderBy(asc(formulas.name), asc(formulas.id));
+/** The formulas in use, or with `archived` only the archived ones. */
+export async function listFormulas(db: Db, organizationId: number, archived = false): Promise<FormulaSummary[]> {
+  const rows = await db
+    .select()
+    .from(formulas)
+    .where(and(eq(formulas.organizationId, organizationId), archived ? isNotNull(formulas.archivedAt) : isNull(formulas.archivedAt)))
+    .orderBy(asc(formulas.name), asc(formulas.id));
   return (await summaries(db, organizationId, rows)).map(({ versions: _versions, ...s }) => s);
 }
 
@@ -277,6 +298,7 @@ export async function updateFormula(db: Db, organizationId: number, id: number, 
   await db.transaction(async (tx) => {
     const [locked] = await tx.select().from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId))).for('update');
     if (!locked) throw notFound('formula', id);
+    await refuseArchived(tx as unknown as Db, locked);
     if (input.expectedRevision !== undefined && input.expectedRevision !== locked.revision) {
       throw new HttpError(409, 'version_conflict', `This formula was changed by someone else since you opened it (now revision ${locked.revision}). Reload it; your edit was not saved.`);
     }
@@ -303,7 +325,7 @@ function wordList(parts: string[]): string {
  * so an unapproved formula cannot gain one meanwhile.
  */
 async function removalOf(tx: Db, organizationId: number, id: number, lock: boolean): Promise<FormulaRemoval> {
-  const formulaQuery = tx.select({ id: formulas.id, name: formulas.name }).from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId)));
+  const formulaQuery = tx.select({ id: formulas.id, name: formulas.name, archivedAt: formulas.archivedAt }).from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId)));
   const [row] = lock ? await formulaQuery.for('update') : await formulaQuery;
   if (!row) throw notFound('formula', id);
   const versionQuery = tx.select(versionColumns).from(formulaVersions).where(and(eq(formulaVersions.formulaId, id), eq(formulaVersions.organizationId, organizationId))).orderBy(desc(formulaVersions.number));
@@ -345,7 +367,13 @@ async function removalOf(tx: Db, organizationId: number, id: number, lock: boole
   const message = held.length
     ? `${name} cannot be deleted: ${wordList(held)}. Batch sheets, the batch log and shared links name this formula and must keep working, so it stays as it is.`
     : `Deleting ${name} removes it for good with its current inputs and ${versions.length ? `its ${plural(versions.length, 'kept version')} (none approved, none shared, no batch recorded)` : 'no kept version'}. This cannot be undone.`;
-  return { formulaId: row.id, formulaName: row.name, removable: held.length === 0, versionCount: versions.length, holds: { approvedVersions, batches, shares: shared }, message };
+  const archiveInstead =
+    held.length && !row.archivedAt
+      ? {
+          message: `Archive ${name} instead: it leaves the formula list${approvedVersions.some((v) => v.current) ? ' and the mill’s list of approved formulas' : ''} and becomes read-only, while batch sheets, the batch log and shared links keep working. It can be restored at any time.`,
+        }
+      : null;
+  return { formulaId: row.id, formulaName: row.name, removable: held.length === 0, versionCount: versions.length, holds: { approvedVersions, batches, shares: shared }, message, archiveInstead };
 }
 
 /** What deleting a formula would do, or what holds it (nothing is changed). */
@@ -377,6 +405,38 @@ export async function deleteFormula(db: Db, organizationId: number, id: number):
 }
 
 // ---------------------------------------------------------------------------
+// Archiving
+// ---------------------------------------------------------------------------
+
+/**
+ * Takes a formula out of the daily view (see FormulaSummary.archived). Archiving twice is refused with
+ * 409 `already_archived`, naming who did it and when, rather than answered as a silent success: the
+ * second person learns that someone else already took the formula out, and nothing changes.
+ */
+export async function archiveFormula(db: Db, organizationId: number, userId: string, id: number): Promise<void> {
+  await db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    const [row] = await t.select({ name: formulas.name, archivedAt: formulas.archivedAt, archivedBy: formulas.archivedBy }).from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId))).for('update');
+    if (!row) throw notFound('formula', id);
+    if (row.archivedAt) {
+      const who = row.archivedBy ? await userName(t, row.archivedBy) : 'someone';
+      throw new HttpError(409, 'already_archived', `“${row.name}” was already archived by ${who} on ${day(row.archivedAt)}. Nothing changed.`);
+    }
+    await t.update(formulas).set({ archivedAt: new Date(), archivedBy: userId }).where(eq(formulas.id, id));
+  });
+}
+
+/** Brings an archived formula back into the working list and, with its approved version, the mill's list; 409 `not_archived` otherwise. */
+export async function restoreFormula(db: Db, organizationId: number, id: number): Promise<void> {
+  await db.transaction(async (tx) => {
+    const [row] = await tx.select({ name: formulas.name, archivedAt: formulas.archivedAt }).from(formulas).where(and(eq(formulas.id, id), eq(formulas.organizationId, organizationId))).for('update');
+    if (!row) throw notFound('formula', id);
+    if (!row.archivedAt) throw new HttpError(409, 'not_archived', `“${row.name}” is not archived, so there is nothing to restore. Nothing changed.`);
+    await tx.update(formulas).set({ archivedAt: null, archivedBy: null }).where(eq(formulas.id, id));
+  });
+}
+
+// ---------------------------------------------------------------------------
 // Solving
 // ---------------------------------------------------------------------------
 
@@ -403,6 +463,7 @@ async function solveWith(db: Db, organizationId: number, row: FormulaRow, inputs
 
 export async function solveFormulaInputs(db: Db, organizationId: number, id: number, inputs?: FormulaInputs): Promise<FormulaSolve> {
   const row = await findFormula(db, organizationId, id);
+  await refuseArchived(db, row);
   return solveWith(db, organizationId, row, inputs ?? row.inputs);
 }
 
@@ -412,12 +473,18 @@ export async function solveFormulaInputs(db: Db, organizationId: number, id: num
  */
 export async function keepVersion(db: Db, organizationId: number, userId: string, id: number, inputs: FormulaInputs | undefined, note: string | null | undefined): Promise<number> {
   const row = await findFormula(db, organizationId, id);
+  await refuseArchived(db, row);
   const used = inputs ?? row.inputs;
   const solved = await solveWith(db, organizationId, row, used);
   const who = await userName(db, userId);
   return db.transaction(async (tx) => {
-    const [locked] = await tx.select({ id: formulas.id, revision: formulas.revision, name: formulas.name }).from(formulas).where(eq(formulas.id, id)).for('update');
+    const [locked] = await tx
+      .select({ id: formulas.id, revision: formulas.revision, name: formulas.name, archivedAt: formulas.archivedAt, archivedBy: formulas.archivedBy })
+      .from(formulas)
+      .where(eq(formulas.id, id))
+      .for('update');
     if (!locked) throw notFound('formula', id);
+    await refuseArchived(tx as unknown as Db, locked);
     if (inputs) {
       // The solve above read the library outside this transaction: before these inputs become the
       // formula's, make sure (under the same lock a delete takes) that every ingredient is still there.
@@ -467,6 +534,14 @@ export async function approveVersion(db: Db, organizationId: number, userId: str
   await findFormula(db, organizationId, formulaId);
   const who = await userName(db, userId);
   await db.transaction(async (tx) => {
+    // The formula row first, then the version (the order keeping and removing lock them in).
+    const [formula] = await tx
+      .select({ name: formulas.name, archivedAt: formulas.archivedAt, archivedBy: formulas.archivedBy })
+      .from(formulas)
+      .where(and(eq(formulas.id, formulaId), eq(formulas.organizationId, organizationId)))
+      .for('update');
+    if (!formula) throw notFound('formula', formulaId);
+    await refuseArchived(tx as unknown as Db, formula);
     const [row] = await tx
       .select(versionColumns)
       .from(formulaVersions)
@@ -490,7 +565,14 @@ export async function listApproved(db: Db, organizationId: number): Promise<Appr
     .where(and(eq(formulaVersions.organizationId, organizationId), isNotNull(formulaVersions.approvedAt)))) as FormulaVersionRow[];
   const current = summarizeVersions(approvedRows).filter((v) => v.approval === 'current');
   if (current.length === 0) return [];
-  const rows = await db.select().from(formulas).where(and(eq(formulas.organizationId, organizationId), inArray(formulas.id, current.map((v) => v.formulaId))));
+  // An archived formula's approved version leaves this list for every role that reads it (operators,
+  // and planners looking at what the mill sees): archiving takes it out of the mill's daily view. Farm
+  // members have no approved list: they read what was shared with their farm, and a share is a copy
+  // handed over, so it stays in their list and its link keeps answering whatever the mill archives.
+  const rows = await db
+    .select()
+    .from(formulas)
+    .where(and(eq(formulas.organizationId, organizationId), isNull(formulas.archivedAt), inArray(formulas.id, current.map((v) => v.formulaId))));
   const speciesIds = [...new Set(rows.map((r) => r.speciesId).filter((x): x is number => x !== null))];
   const speciesRows = speciesIds.length ? await db.select().from(speciesTable).where(inArray(speciesTable.id, speciesIds)) : [];
   return rows
@@ -504,7 +586,11 @@ export async function listApproved(db: Db, organizationId: number): Promise<Appr
     .sort((a, b) => a.formulaName.localeCompare(b.formulaName));
 }
 
-/** One current approved version (the batch sheet's source); any other version answers 404. */
+/**
+ * One current approved version (the batch sheet's source); any other version answers 404. Archiving
+ * does not touch it on purpose: a batch sheet already printed or bookmarked, and the batch log, keep
+ * working for an archived formula.
+ */
 export async function getApprovedVersion(db: Db, organizationId: number, versionId: number): Promise<VersionDetail> {
   const [row] = await db.select().from(formulaVersions).where(and(eq(formulaVersions.id, versionId), eq(formulaVersions.organizationId, organizationId), isNotNull(formulaVersions.approvedAt)));
   if (!row) throw notFound('approved version', versionId);
@@ -519,6 +605,7 @@ export async function getApprovedVersion(db: Db, organizationId: number, version
 
 export async function sweepIngredientPrice(db: Db, organizationId: number, id: number, input: SweepInput): Promise<FormulaPriceSweep> {
   const row = await findFormula(db, organizationId, id);
+  await refuseArchived(db, row);
   const inputs = input.inputs ?? row.inputs;
   if (!inputs.ingredients.some((i) => i.ingredientId === input.ingredientId)) {
     throw badRequest('ingredientId: add this ingredient to the formula first', { ingredientId: ['add this ingredient to the formula first'] });

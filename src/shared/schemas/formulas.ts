@@ -147,6 +147,14 @@ export const formulaPriceSweepInput = z
   });
 export type FormulaPriceSweepInput = z.input<typeof formulaPriceSweepInput>;
 
+/**
+ * GET /api/formulas: the formulas in use by default; `archived=true` lists the archived ones instead
+ * (the list's "Archived" filter). Archived formulas are never mixed into the working list.
+ */
+export const listFormulasQuery = z.object({
+  archived: z.enum(['true', 'false'], { message: 'archived must be true or false' }).default('false').transform((v) => v === 'true'),
+});
+
 export const versionParams = z.object({
   id: z.coerce.number({ message: 'must be a number' }).int().positive(),
   versionId: z.coerce.number({ message: 'must be a number' }).int().positive(),
@@ -241,6 +249,12 @@ export type FormulaSummary = {
   updatedAt: string;
   latestVersion: VersionSummary | null;
   approvedVersion: VersionSummary | null;
+  /**
+   * Set while the formula is archived (POST /api/formulas/:id/archive): read-only, out of the working
+   * list and of the mill's approved list; batch sheets, the batch log and shared links keep working.
+   * `by` is the person's name; `at` an ISO timestamp.
+   */
+  archived: { at: string; by: string | null } | null;
 };
 
 /** A chosen ingredient as the library has it today (for labels; a solve reads the library again). */
@@ -289,6 +303,12 @@ export type FormulaRemoval = {
   };
   /** What will happen, or why it cannot, in words. */
   message: string;
+  /**
+   * When something holds the formula and it is not archived yet: archiving takes it out of the daily
+   * view instead (POST /api/formulas/:id/archive, for roles with 'formulas:approve'), in words.
+   * Null when it can be deleted or is archived already.
+   */
+  archiveInstead: { message: string } | null;
 };
 
 /** An ingredient the picker offers: price as fed, and whether the insect-protein rule allows it for the chosen species. */

@@ -1,6 +1,6 @@
 import { and, eq, isNull } from 'drizzle-orm';
 
-import { approveVersion, createFormula, keepVersion } from '../../../server/db/queries/formulas';
+import { approveVersion, archiveFormula, createFormula, keepVersion } from '../../../server/db/queries/formulas';
 import { ingredients, specifications } from '../../../server/db/schema';
 import { REFERENCE_LIBRARY_STEP, seedDemoData } from '../../../server/db/seed';
 import { createFormulaInput } from '../../../src/shared/schemas/formulas';
@@ -32,13 +32,20 @@ async function fixtures(world: AuthWorld) {
   await approveVersion(db, world.orgA.id, world.userIds.owner, formulaId, approvedId);
   // A fresh draft for each caller of a delete, so every caller meets a formula that can be removed.
   const newDraft = () => createFormula(db, world.orgA.id, world.userIds.owner, createFormulaInput.parse({ ...body, name: 'Rule-table draft' }));
-  return { body, formulaId, versionId, approvedId, newVersion, newDraft, soyId: soy.id };
+  // Archiving and restoring change state: each caller meets a formula in use, or an archived one.
+  const newArchived = async () => {
+    const id = await newDraft();
+    await archiveFormula(db, world.orgA.id, world.userIds.owner, id);
+    return id;
+  };
+  return { body, formulaId, versionId, approvedId, newVersion, newDraft, newArchived, soyId: soy.id };
 }
 
 /**
  * The formula workspace. Owners, nutritionists and advisors read and solve; owners and nutritionists
  * approve; mill operators reach only the current approved versions. Removing a never-approved draft
- * needs 'formulas:solve' like creating one. Another organization's formula answers 404.
+ * needs 'formulas:solve' like creating one; archiving and restoring need 'formulas:approve', since they
+ * take a formula out of (or back into) the mill's daily view. Another organization's formula answers 404.
  */
 export const formulasRules: RuleSet = {
   area: 'formulas',
@@ -78,6 +85,20 @@ export const formulasRules: RuleSet = {
         url: '/api/formulas/0',
         prepare: async () => ({ url: `/api/formulas/${await f.newDraft()}` }),
         expect: allowOnly(SOLVERS, 204, { outsider: 404 }),
+      },
+      {
+        method: 'POST',
+        pattern: '/api/formulas/:id/archive',
+        url: '/api/formulas/0/archive',
+        prepare: async () => ({ url: `/api/formulas/${await f.newDraft()}/archive` }),
+        expect: allowOnly(APPROVERS, 200, { outsider: 404 }),
+      },
+      {
+        method: 'POST',
+        pattern: '/api/formulas/:id/restore',
+        url: '/api/formulas/0/restore',
+        prepare: async () => ({ url: `/api/formulas/${await f.newArchived()}/restore` }),
+        expect: allowOnly(APPROVERS, 200, { outsider: 404 }),
       },
       { method: 'GET', pattern: '/api/formulas/:id/compare', url: `${base}/compare?a=${f.versionId}&b=${f.approvedId}`, expect: allowOnly(READERS, 200, { outsider: 404 }) },
     ];

@@ -20,7 +20,9 @@ import { STALE } from './stale';
 
 export const formulaKeys = {
   all: ['formulas'] as const,
+  /** Every list (a prefix for invalidation); `listOf` is one of them. */
   list: () => [...formulaKeys.all, 'list'] as const,
+  listOf: (archived: boolean) => [...formulaKeys.list(), archived ? 'archived' : 'in-use'] as const,
   detail: (id: number) => [...formulaKeys.all, 'detail', id] as const,
   version: (id: number, versionId: number) => [...formulaKeys.all, 'version', id, versionId] as const,
   compare: (id: number, a: number, b: number) => [...formulaKeys.all, 'compare', id, a, b] as const,
@@ -29,9 +31,14 @@ export const formulaKeys = {
   removal: (id: number) => [...formulaKeys.all, 'removal', id] as const,
 };
 
-export const formulasQueryOptions = () =>
-  queryOptions({ queryKey: formulaKeys.list(), queryFn: ({ signal }) => apiClient.get<FormulaSummary[]>('/api/formulas', signal), staleTime: STALE.SECONDS.THIRTY });
-export const useFormulasQuery = (enabled = true) => useQuery({ ...formulasQueryOptions(), enabled });
+/** The formulas in use, or with `archived` the archived ones (never both in one list). */
+export const formulasQueryOptions = (archived = false) =>
+  queryOptions({
+    queryKey: formulaKeys.listOf(archived),
+    queryFn: ({ signal }) => apiClient.get<FormulaSummary[]>(`/api/formulas${archived ? '?archived=true' : ''}`, signal),
+    staleTime: STALE.SECONDS.THIRTY,
+  });
+export const useFormulasQuery = (archived = false, enabled = true) => useQuery({ ...formulasQueryOptions(archived), enabled });
 
 export const formulaQueryOptions = (id: number) =>
   queryOptions({ queryKey: formulaKeys.detail(id), queryFn: ({ signal }) => apiClient.get<FormulaDetail>(`/api/formulas/${id}`, signal), staleTime: STALE.SECONDS.THIRTY });
@@ -133,5 +140,21 @@ export function useFormulaDeleteMutation(id: number) {
     mutationFn: () => apiClient.delete<void>(`/api/formulas/${id}`),
     // The screen leaves the formula at once; its cached detail goes stale with it and is never shown again.
     onSuccess: () => queryClient.invalidateQueries({ queryKey: formulaKeys.list() }),
+  });
+}
+
+/**
+ * Archives (`archive`) or restores (`restore`) a formula: it leaves or rejoins the working list and the
+ * mill's approved list. A 409 says someone else already did it.
+ */
+export function useFormulaArchiveMutation(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (action: 'archive' | 'restore') => apiClient.post<FormulaDetail>(`/api/formulas/${id}/${action}`),
+    onSuccess: (detail) => {
+      queryClient.setQueryData(formulaKeys.detail(id), detail);
+      queryClient.removeQueries({ queryKey: formulaKeys.removal(id) });
+      return Promise.all([queryClient.invalidateQueries({ queryKey: formulaKeys.list() }), queryClient.invalidateQueries({ queryKey: formulaKeys.approved() })]);
+    },
   });
 }

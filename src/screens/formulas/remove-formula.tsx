@@ -2,7 +2,8 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { ApiError } from '@/api/client';
-import { useFormulaDeleteMutation, useFormulaRemovalQuery } from '@/api/formulas';
+import { useFormulaArchiveMutation, useFormulaDeleteMutation, useFormulaRemovalQuery } from '@/api/formulas';
+import { useActiveMembership } from '@/api/session';
 import { describeError, ErrorState } from '@/components/error-state';
 import { FormMessage } from '@/components/form-message';
 import { Button } from '@/components/ui/button';
@@ -10,6 +11,8 @@ import { Card } from '@/components/ui/card';
 import { AppText } from '@/components/ui/text';
 import type { FormulaRemoval } from '@/shared/schemas/formulas';
 import { colors, radius, space } from '@/theme';
+
+import { whoMayArchive } from './archived-banner';
 
 /** The holds of a formula as lines a person reads. */
 function holdLines(r: FormulaRemoval): string[] {
@@ -24,15 +27,19 @@ function holdLines(r: FormulaRemoval): string[] {
 /**
  * Removing a formula, in two steps on the page itself: the first asks the server what a delete would do
  * (or what holds the formula), the second deletes it. A formula never approved, with nothing recorded
- * against it, goes for good with its kept versions; any other stays, and the card says what holds it.
+ * against it, goes for good with its kept versions; any other stays, the card says what holds it and
+ * offers to archive it instead (owners and nutritionists; others read who can).
  */
-export function RemoveFormula({ formulaId, formulaName, onRemoved }: { formulaId: number; formulaName: string; onRemoved: (name: string) => void }) {
+export function RemoveFormula({ formulaId, formulaName, onRemoved, onArchived }: { formulaId: number; formulaName: string; onRemoved: (name: string) => void; onArchived: (name: string) => void }) {
+  const { can } = useActiveMembership();
   const [asking, setAsking] = useState(false);
   const removal = useFormulaRemovalQuery(formulaId, asking);
   const remove = useFormulaDeleteMutation(formulaId);
+  const archive = useFormulaArchiveMutation(formulaId);
   const close = () => {
     setAsking(false);
     remove.reset();
+    archive.reset();
   };
 
   if (!asking) {
@@ -47,6 +54,8 @@ export function RemoveFormula({ formulaId, formulaName, onRemoved }: { formulaId
   const refusal = remove.error instanceof ApiError && remove.error.code === 'in_use' ? remove.error : null;
   const r = removal.data;
   const held = refusal !== null || (r !== undefined && !r.removable);
+  const instead = r?.archiveInstead && !refusal ? r.archiveInstead : null;
+  const mayArchive = can('formulas:approve');
   return (
     <Card title={held ? `Removing “${formulaName}”` : `Delete “${formulaName}”?`} testID="remove-formula-card" style={styles.card}>
       {removal.isPending ? <AppText muted>Checking what would go with it and what holds it…</AppText> : null}
@@ -69,6 +78,13 @@ export function RemoveFormula({ formulaId, formulaName, onRemoved }: { formulaId
       ) : remove.isError ? (
         <FormMessage tone="danger" text={`Nothing was deleted. ${describeError(remove.error)}`} testID="remove-formula-error" />
       ) : null}
+      {instead ? (
+        <View style={styles.consequence} testID="remove-formula-archive-offer">
+          <AppText>{instead.message}</AppText>
+          {mayArchive ? null : <AppText variant="small" muted>{whoMayArchive()} can archive it: ask one of them.</AppText>}
+        </View>
+      ) : null}
+      <FormMessage tone="danger" text={archive.isError ? `Nothing was archived. ${describeError(archive.error)}` : null} testID="archive-formula-error" />
       <View style={styles.actions}>
         {r?.removable && !refusal ? (
           <Button
@@ -79,7 +95,15 @@ export function RemoveFormula({ formulaId, formulaName, onRemoved }: { formulaId
             style={styles.danger}
           />
         ) : null}
-        <Button label={held ? 'Close' : 'Keep it'} tone="quiet" onPress={close} disabled={remove.isPending} testID="remove-formula-cancel" />
+        {instead && mayArchive && r ? (
+          <Button
+            label={archive.isPending ? 'Archiving…' : 'Archive it instead'}
+            disabled={archive.isPending}
+            onPress={() => archive.mutate('archive', { onSuccess: () => onArchived(r.formulaName) })}
+            testID="remove-formula-archive"
+          />
+        ) : null}
+        <Button label={held ? 'Close' : 'Keep it'} tone="quiet" onPress={close} disabled={remove.isPending || archive.isPending} testID="remove-formula-cancel" />
       </View>
     </Card>
   );

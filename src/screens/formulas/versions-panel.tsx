@@ -17,9 +17,10 @@ import { colors, fonts, space } from '@/theme';
 import { money, pct, signed, when } from './format';
 import { StatusBadge } from './status-badge';
 
-/** Kept versions: view one, approve one (nutritionists), compare two side by side. */
-export function VersionsPanel({ formula, viewing, onView, units }: { units: Units; formula: FormulaDetail; viewing: number | null; onView: (id: number) => void }) {
+/** Kept versions: view one, approve one (nutritionists; not while the formula is archived), compare two side by side. */
+export function VersionsPanel({ formula, viewing, onView, units, readOnly = false }: { units: Units; formula: FormulaDetail; viewing: number | null; onView: (id: number) => void; readOnly?: boolean }) {
   const { can } = useActiveMembership();
+  const mayApprove = can('formulas:approve') && !readOnly;
   const approve = useVersionApproveMutation(formula.id);
   const current = formula.versions.find((v) => v.approval === 'current');
   return (
@@ -38,11 +39,11 @@ export function VersionsPanel({ formula, viewing, onView, units }: { units: Unit
           {v.costPerTonne !== null ? <Figure value={money(units.costOf(v.costPerTonne))} unit={`${units.currency} per ${units.tonneWord}`} /> : null}
           <View style={styles.actions}>
             <Button label="View" tone="quiet" onPress={() => onView(v.id)} testID={`view-version-${v.number}`} />
-            {can('formulas:approve') && v.status === 'optimal' && v.approval === 'not_approved' ? (
+            {mayApprove && v.status === 'optimal' && v.approval === 'not_approved' ? (
               <Button label="Approve for the mill" onPress={() => approve.mutate(v.id)} disabled={approve.isPending} testID={`approve-version-${v.number}`} />
             ) : null}
           </View>
-          {can('formulas:approve') && v.status === 'optimal' && v.approval === 'not_approved' && current ? (
+          {mayApprove && v.status === 'optimal' && v.approval === 'not_approved' && current ? (
             <AppText variant="caption" muted>Approving it supersedes version {current.number}: the mill will then see this version instead.</AppText>
           ) : null}
         </View>

@@ -16,6 +16,7 @@ import { useUnits, useUnitsReady, type Units } from '@/lib/measures-format';
 import type { FormulaDetail, FormulaSolve, IngredientChoice } from '@/shared/schemas/formulas';
 import { colors, space, WIDE_MIN_WIDTH } from '@/theme';
 
+import { ArchivedBanner } from './archived-banner';
 import { when } from './format';
 import { IngredientPicker } from './ingredient-picker';
 import { InsectValue } from './insect-value';
@@ -62,7 +63,11 @@ function Workspace({ formula, units }: { formula: FormulaDetail; units: Units })
   const solve = useFormulaSolveMutation(formula.id);
   const keep = useVersionKeepMutation(formula.id);
   const save = useFormulaUpdateMutation(formula.id);
-  const [shown, setShown] = useState<Shown>(formula.latestVersion ? { kind: 'version', versionId: formula.latestVersion.id } : null);
+  // An archived formula is read-only: no solving, keeping, saving, sharing or approving until restored.
+  const readOnly = formula.archived !== null;
+  // Archived, it opens on the version the mill was making (its approved one), else the latest.
+  const opening = readOnly ? (formula.approvedVersion ?? formula.latestVersion) : formula.latestVersion;
+  const [shown, setShown] = useState<Shown>(opening ? { kind: 'version', versionId: opening.id } : null);
   const [message, setMessage] = useState<{ tone: 'danger' | 'ok'; text: string } | null>(null);
   const [picking, setPicking] = useState(false);
   const version = useFormulaVersionQuery(formula.id, shown?.kind === 'version' ? shown.versionId : null);
@@ -133,7 +138,7 @@ function Workspace({ formula, units }: { formula: FormulaDetail; units: Units })
 
   const results = (
     <View style={styles.column}>
-      {actions()}
+      {readOnly ? null : actions()}
       {busy ? (
         <View style={styles.working} testID="solve-working" accessibilityRole="progressbar">
           <ActivityIndicator color={colors.brand} />
@@ -146,15 +151,21 @@ function Workspace({ formula, units }: { formula: FormulaDetail; units: Units })
         <ResultPanel units={units} solve={version.data.snapshot} heading={`Version ${version.data.number}, kept by ${version.data.createdBy} ${when(version.data.createdAt)}`} />
       ) : null}
       {shown?.kind === 'version' && version.isError ? <ErrorState error={version.error} onRetry={() => version.refetch()} /> : null}
-      {!shown ? <AppText muted>Press Solve to see the least-cost mix for these inputs.</AppText> : null}
-      <InsectValue units={units} formulaId={formula.id} meals={meals} currentInputs={validInputs} />
-      <VersionsPanel units={units} formula={formula} viewing={shown?.kind === 'version' ? shown.versionId : null} onView={(versionId) => setShown({ kind: 'version', versionId })} />
+      {!shown ? <AppText muted>{readOnly ? 'No version was kept of this formula.' : 'Press Solve to see the least-cost mix for these inputs.'}</AppText> : null}
+      {readOnly ? null : <InsectValue units={units} formulaId={formula.id} meals={meals} currentInputs={validInputs} />}
+      <VersionsPanel units={units} formula={formula} readOnly={readOnly} viewing={shown?.kind === 'version' ? shown.versionId : null} onView={(versionId) => setShown({ kind: 'version', versionId })} />
       {/* Only a kept version can be shared: a farm must see exactly what was solved, not today's re-solve. */}
-      {shown?.kind === 'version' && can('results:share') ? <ShareCard what={{ kind: 'formula_version', formulaId: formula.id, versionId: shown.versionId }} /> : null}
+      {shown?.kind === 'version' && can('results:share') && !readOnly ? <ShareCard what={{ kind: 'formula_version', formulaId: formula.id, versionId: shown.versionId }} /> : null}
     </View>
   );
 
-  const inputs = (
+  const inputs = readOnly ? (
+    <View style={styles.column}>
+      <Card title="Inputs" testID="formula-inputs-archived">
+        <AppText muted>The inputs of an archived formula cannot be changed. Each version shown beside holds the inputs, library values and prices it was solved with; restore the formula to work on it again.</AppText>
+      </Card>
+    </View>
+  ) : (
     <View style={styles.column}>
       {picking ? (
         <Card title="Add or remove ingredients" testID="workspace-picker">
@@ -176,6 +187,7 @@ function Workspace({ formula, units }: { formula: FormulaDetail; units: Units })
   return (
     <Screen title={formula.name} lead={`${formula.species?.name ?? ''}${formula.specification ? ` · ${formula.specification.name}` : ''} · every amount as fed`} testID="screen-formula">
       <Button label="← All formulas" tone="quiet" onPress={() => router.push('/')} testID="back-to-formulas" />
+      <ArchivedBanner formula={formula} />
       {wide ? (
         <View style={styles.wide}>
           <View style={styles.inputsWide}>{inputs}</View>
@@ -187,7 +199,14 @@ function Workspace({ formula, units }: { formula: FormulaDetail; units: Units })
           {inputs}
         </View>
       )}
-      {can('formulas:solve') ? <RemoveFormula formulaId={formula.id} formulaName={formula.name} onRemoved={(name) => router.replace(`/?removed=${encodeURIComponent(name)}`)} /> : null}
+      {can('formulas:solve') ? (
+        <RemoveFormula
+          formulaId={formula.id}
+          formulaName={formula.name}
+          onRemoved={(name) => router.replace(`/?removed=${encodeURIComponent(name)}`)}
+          onArchived={(name) => router.replace(`/?archived=${encodeURIComponent(name)}`)}
+        />
+      ) : null}
     </Screen>
   );
 }

@@ -213,4 +213,52 @@ describe('formula workspace in the browser', () => {
     assert.equal((await db.select().from(formulas).where(eq(formulas.id, approved.formulaId))).length, 1);
     await wide.close();
   });
+
+  test('at 1280 px: the nutritionist archives the demo’s approved formula instead of deleting it, finds it under Archived, read-only, and restores it', async () => {
+    const db = t.database.db;
+    const [starter] = await db.select().from(formulas).where(eq(formulas.name, 'Broiler starter'));
+    const page = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(page, t.server.baseUrl, NUTRITIONIST, DEMO_PASSWORD);
+    await visible(page, `formula-${starter.id}`).click();
+    await visible(page, 'screen-formula').waitFor();
+    await visible(page, 'remove-formula').click();
+    await visible(page, 'remove-formula-held').waitFor();
+    assert.match(await visible(page, 'remove-formula-archive-offer').innerText(), /^Archive “Broiler starter” instead: it leaves the formula list and the mill’s list of approved formulas and becomes read-only/);
+    await visible(page, 'remove-formula-card').screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-archive-offer.png') });
+    await visible(page, 'remove-formula-archive').click();
+
+    // Back on the list: it says where the formula went, and the formula is no longer there.
+    await visible(page, 'formula-archived').waitFor();
+    assert.match(await visible(page, 'formula-archived').innerText(), /^“Broiler starter” was archived: .*Find it under “Archived”/);
+    await visible(page, 'formula-shelf').waitFor();
+    assert.equal(await page.locator(`[data-testid="formula-${starter.id}"]:visible`).count(), 0, 'gone from the working list');
+    assert.ok((await db.select().from(formulas).where(eq(formulas.id, starter.id)))[0].archivedAt);
+
+    // Under Archived: who archived it, and Restore. Opened, it is read-only with a banner.
+    await visible(page, 'formula-shelf-archived').click();
+    await visible(page, `archived-formula-${starter.id}`).waitFor();
+    assert.match(await visible(page, `archived-formula-${starter.id}`).innerText(), /Archived by Idris Okonjo/);
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-archived-list.png'), fullPage: true });
+    await visible(page, `formula-${starter.id}`).click();
+    await visible(page, 'archived-banner').waitFor();
+    assert.match(await visible(page, 'archived-banner').innerText(), /Archived: read-only[\s\S]*Batch sheets already handed out, the batch log and links shared with farms still work/);
+    await visible(page, 'mix-table').waitFor();
+    await visible(page, 'caution-banner').waitFor();
+    for (const gone of ['solve', 'keep-version', 'save-inputs', 'approve-version-1']) assert.equal(await page.locator(`[data-testid="${gone}"]:visible`).count(), 0, `no ${gone} on an archived formula`);
+    await visible(page, 'restore-formula').waitFor();
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-archived-formula.png'), fullPage: true });
+
+    // Restored from the list: back among the formulas in use.
+    await visible(page, 'back-to-formulas').click();
+    await visible(page, 'formula-shelf-archived').click();
+    await visible(page, `restore-formula-${starter.id}`).click();
+    await visible(page, 'formula-restored').waitFor();
+    assert.match(await visible(page, 'formula-restored').innerText(), /^“Broiler starter” was restored/);
+    await visible(page, `archived-formula-${starter.id}`).waitFor({ state: 'detached' });
+    await visible(page, 'formula-shelf-in-use').click();
+    await visible(page, `formula-${starter.id}`).waitFor();
+    assert.equal((await db.select().from(formulas).where(eq(formulas.id, starter.id)))[0].archivedAt, null);
+    await page.screenshot({ path: join(TEST_OUTPUT, 'workspace-wide-restored.png'), fullPage: true });
+    await page.close();
+  });
 });

@@ -3,6 +3,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { LibraryName } from '@/shared/library-terms';
 import type { Page } from '@/shared/schemas/library-common';
 import type {
+  CopySpecificationInput,
   CreatePhaseInput,
   CreateSpeciesInput,
   CreateSpecificationInput,
@@ -64,6 +65,8 @@ function useSpecificationMutation<TInput>(fn: (input: TInput) => Promise<Specifi
 }
 
 export const useSpecificationCreateMutation = () => useSpecificationMutation((input: CreateSpecificationInput) => apiClient.post<SpecificationDetail>('/api/specifications', input));
-export const useSpecificationCopyMutation = () => useSpecificationMutation((id: number) => apiClient.post<SpecificationDetail>(`/api/specifications/${id}/copy`, {}));
+/** Copies a specification; with `phaseId` into that phase (same species, or another species of the same family). */
+export const useSpecificationCopyMutation = () =>
+  useSpecificationMutation(({ id, ...input }: CopySpecificationInput & { id: number }) => apiClient.post<SpecificationDetail>(`/api/specifications/${id}/copy`, input));
 export const useSpecificationUpdateMutation = (id: number) =>
   useSpecificationMutation((input: UpdateSpecificationInput) => apiClient.put<SpecificationDetail>(`/api/specifications/${id}`, input));

@@ -36,7 +36,10 @@ describe('adjusting a copied specification', () => {
     await page.goto(`${t.server.baseUrl}/requirements`);
     await page.locator('[data-testid^="spec-card-"]:visible', { hasText: 'Broiler starter' }).first().click();
     await visible(page, 'spec-copy').click();
-    await visible(page, 'spec-edit').click();
+    // The copy keeps the starter's own phase unless another is chosen, and opens ready to adjust.
+    await visible(page, 'spec-copy-form').waitFor();
+    await visible(page, 'spec-copy-submit').click();
+    await visible(page, 'spec-bounds-form').waitFor();
 
     // A cap above 100 % is refused with a message, and nothing is saved.
     await visible(page, 'cap-max-0').fill('140');
@@ -123,6 +126,91 @@ describe('adjusting a copied specification', () => {
     assert.deepEqual(body.bounds.map((b: { nutrientId: string; min: number }) => [b.nutrientId, b.min]), [['cp', 24]]);
     const quail = (await api.call('GET', '/api/species')).body.items.find((s: { name: string }) => s.name === 'Japanese quail');
     assert.deepEqual([quail.phases[0].ageFromDays, quail.phases[0].ageToDays], [0, 21]);
+    await page.close();
+  });
+
+  test('on a phone: add a phase to broilers, start it from the reference grower specification, see its lysine bound, adjust one bound and save', async () => {
+    const api = await signedInClient(t.server.baseUrl, EMAIL);
+    const reference = (await api.call('GET', '/api/specifications?library=reference&pageSize=200')).body.items.find((s: { name: string }) => s.name === 'Broiler grower, 3–6 weeks');
+    const grower = (await api.call('GET', `/api/specifications/${reference.id}`)).body;
+    const lysine = grower.bounds.find((b: { nutrientId: string }) => b.nutrientId === 'lys');
+    // The reference names its source as the NRC (1994) broiler table as adapted in the Merck Veterinary Manual
+    // table “Nutrient Requirements of Broilers”, with no table number; there, lysine for 3–6 weeks is 1.00 % of the diet.
+    assert.match(grower.source, /^NRC \(1994\) Nutrient Requirements of Poultry, broiler table, as adapted in the Merck Veterinary Manual/);
+    assert.equal(lysine.min, 1.0);
+
+    const page = await browser.newPage({ viewport: PHONE });
+    await signInThroughForm(page, t.server.baseUrl, EMAIL, FIXTURE_PASSWORD);
+    await page.goto(`${t.server.baseUrl}/requirements/species`);
+    await visible(page, 'phase-form').waitFor();
+    await visible(page, `phase-species-${grower.species.id}`).click();
+    await visible(page, 'phase-name').fill('Finisher 35 d+');
+    await visible(page, 'phase-band-age').click();
+    await visible(page, 'phase-age-unit-days').click();
+    await visible(page, 'phase-from').fill('35');
+    await visible(page, 'phase-submit').click();
+    await visible(page, 'phase-added').waitFor();
+
+    // Next to the empty start: a copy of an existing specification. Only poultry ones are offered.
+    await visible(page, 'spec-start').waitFor();
+    await visible(page, 'spec-start-copy').waitFor();
+    const pigSpec = (await api.call('GET', '/api/specifications?library=reference&pageSize=200')).body.items.find((s: { species: { family: string } }) => s.species.family === 'swine');
+    assert.equal(await visible(page, `spec-start-copy-source-${pigSpec.id}`).count(), 0, 'no pig specification for a broiler phase');
+    await visible(page, 'spec-start-copy-submit').click();
+    await page.locator('[data-testid="spec-start-copy-source-error"]:visible', { hasText: 'Choose the specification to start from.' }).waitFor();
+    await visible(page, `spec-start-copy-source-${grower.id}`).click();
+    await visible(page, 'spec-start-copy-chosen').waitFor();
+    await visible(page, 'spec-start-copy-name').fill('Broiler finisher from 35 days');
+    await visible(page, 'spec-start-copy-submit').click();
+
+    // The copy opens with its bounds form: the same lysine minimum as the reference holds.
+    await visible(page, 'spec-bounds-form').waitFor();
+    assert.equal(Number(await visible(page, 'bound-min-lys').inputValue()), lysine.min);
+    await page.locator('[data-testid="screen-specification"]:visible', { hasText: 'Copied from “Broiler grower, 3–6 weeks”' }).waitFor();
+    await visible(page, 'bound-min-lys').fill('0.95');
+    await page.screenshot({ path: join(TEST_OUTPUT, 'requirements-copy-into-phase-phone.png'), fullPage: true });
+    await visible(page, 'spec-save').click();
+    await visible(page, 'bound-lys').waitFor();
+
+    const id = Number(new URL(page.url()).pathname.split('/').pop());
+    const { body } = await api.call('GET', `/api/specifications/${id}`);
+    assert.deepEqual([body.species.id, body.phase.name, body.name, body.copiedFromId, body.source], [grower.species.id, 'Finisher 35 d+', 'Broiler finisher from 35 days', grower.id, grower.source]);
+    assert.equal(body.bounds.find((b: { nutrientId: string }) => b.nutrientId === 'lys').min, 0.95);
+    // Every other bound is still the reference's, confidence included.
+    const others = (bounds: { nutrientId: string }[]) => bounds.filter((b) => b.nutrientId !== 'lys');
+    assert.deepEqual(others(body.bounds), others(grower.bounds));
+    assert.deepEqual(body.caps, grower.caps);
+    await page.close();
+  });
+
+  test('at 1280 px: the copy action of a specification offers the phases of poultry species only, grouped by species', async () => {
+    const api = await signedInClient(t.server.baseUrl, EMAIL);
+    const items = (await api.call('GET', '/api/specifications?library=reference&pageSize=200')).body.items;
+    const grower = items.find((s: { name: string }) => s.name === 'Broiler grower, 3–6 weeks');
+    const allSpecies = (await api.call('GET', '/api/species')).body.items as { id: number; name: string; family: string; phases: { id: number; name: string }[] }[];
+    const broiler = allSpecies.find((s) => s.id === grower.species.id)!;
+    const target = broiler.phases.find((p) => p.name === 'Finisher 35 d+')!;
+    const pigPhase = allSpecies.find((s) => s.family === 'swine')!.phases[0];
+
+    const page = await browser.newPage({ viewport: WIDE });
+    await signInThroughForm(page, t.server.baseUrl, EMAIL, FIXTURE_PASSWORD);
+    await page.goto(`${t.server.baseUrl}/requirements/${grower.id}`);
+    await visible(page, 'spec-copy').click();
+    await visible(page, `spec-copy-phase-group-${broiler.id}`).waitFor();
+    assert.equal(await visible(page, `spec-copy-phase-${pigPhase.id}`).count(), 0, 'no pig phase for a poultry specification');
+    await visible(page, `spec-copy-phase-${target.id}`).click();
+    await visible(page, 'spec-copy-moved').waitFor();
+    assert.equal(await visible(page, 'spec-copy-name').inputValue(), 'Broiler chicken, Finisher 35 d+ (from Broiler grower, 3–6 weeks)');
+    await visible(page, 'spec-copy-name').fill('');
+    await visible(page, 'spec-copy-submit').click();
+    await page.locator('text=Give the copy a name.').first().waitFor();
+    await visible(page, 'spec-copy-name').fill('Finisher band, second try');
+    await page.screenshot({ path: join(TEST_OUTPUT, 'requirements-copy-into-phase-wide.png'), fullPage: true });
+    await visible(page, 'spec-copy-submit').click();
+    await visible(page, 'spec-bounds-form').waitFor();
+    const id = Number(new URL(page.url()).pathname.split('/').pop());
+    const { body } = await api.call('GET', `/api/specifications/${id}`);
+    assert.deepEqual([body.phase.id, body.name, body.copiedFromId], [target.id, 'Finisher band, second try', grower.id]);
     await page.close();
   });
 

@@ -4,6 +4,7 @@ import { NotFoundScreen } from '@/screens/library/not-found';
 import { SpecificationScreen } from '@/screens/requirements/specification';
 
 export default function SpecificationRoute() {
-  const id = Number(useLocalSearchParams<{ id: string }>().id);
-  return Number.isInteger(id) && id > 0 ? <SpecificationScreen id={id} /> : <NotFoundScreen what="specification" />;
+  const params = useLocalSearchParams<{ id: string; adjust?: string }>();
+  const id = Number(params.id);
+  return Number.isInteger(id) && id > 0 ? <SpecificationScreen id={id} adjust={params.adjust === '1'} /> : <NotFoundScreen what="specification" />;
 }

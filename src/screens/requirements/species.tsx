@@ -19,6 +19,8 @@ import { SPECIES_FAMILY_LABELS, type SpeciesFamily } from '@/shared/library-term
 import type { CreatePhaseInput, Phase, Species } from '@/shared/schemas/specifications';
 import { colors, radius, space, WIDE_MIN_WIDTH } from '@/theme';
 
+import { StartFromExisting } from './copy-forms';
+
 /** Species and their production phases; owners and nutritionists add their own here. */
 export function SpeciesScreen() {
   const router = useRouter();
@@ -46,7 +48,12 @@ export function SpeciesScreen() {
             }}
           />
           <PhaseForm list={species.data.items} formRef={phaseForm} onAdded={(s, p) => setAdded({ species: s, phase: p })} />
-          {added ? <StartSpecification key={added.phase.id} species={added.species} phase={added.phase} /> : null}
+          {added ? (
+            <View style={styles.starts} key={added.phase.id}>
+              <StartSpecification species={added.species} phase={added.phase} />
+              <StartFromExisting species={added.species} phase={added.phase} />
+            </View>
+          ) : null}
         </View>
       ) : null}
       <View style={[styles.column, wide && styles.listColumn]}>
@@ -343,6 +350,7 @@ function SpeciesList({ items }: { items: Species[] }) {
 
 const styles = StyleSheet.create({
   columns: { gap: space.lg },
+  starts: { gap: space.lg },
   columnsWide: { flexDirection: 'row', alignItems: 'flex-start' },
   column: { gap: space.lg },
   formColumn: { flex: 5 },

@@ -5,10 +5,10 @@ import { Formik, type FormikHelpers } from 'formik';
 import * as yup from 'yup';
 
 import { useNutrientsQuery } from '@/api/nutrients';
-import { useSpecificationCopyMutation, useSpecificationQuery, useSpecificationUpdateMutation } from '@/api/requirements';
+import { useSpecificationQuery, useSpecificationUpdateMutation } from '@/api/requirements';
 import { useActiveMembership } from '@/api/session';
 import { CautionBanner } from '@/components/caution-banner';
-import { describeError, ErrorState } from '@/components/error-state';
+import { ErrorState } from '@/components/error-state';
 import { FormMessage } from '@/components/form-message';
 import { Screen } from '@/components/screen';
 import { Button } from '@/components/ui/button';
@@ -22,14 +22,16 @@ import type { SpecificationCap, SpecificationDetail } from '@/shared/schemas/spe
 import { colors, space, TOUCH_MIN } from '@/theme';
 
 import { formatValue } from '../library/format';
+import { CopyIntoPhaseForm } from './copy-forms';
 
-export function SpecificationScreen({ id }: { id: number }) {
+/** `adjust`: open with the bounds form showing (a fresh copy lands here). */
+export function SpecificationScreen({ id, adjust = false }: { id: number; adjust?: boolean }) {
   const spec = useSpecificationQuery(id);
   const nutrients = useNutrientsQuery();
   const error = spec.error ?? nutrients.error;
   if (error) return <Screen title="Specification" testID="screen-specification"><ErrorState error={error} onRetry={() => { spec.refetch(); nutrients.refetch(); }} /></Screen>;
   if (!spec.data || !nutrients.data) return <Screen title="Specification" testID="screen-specification"><AppText muted>Loading…</AppText></Screen>;
-  return <SpecificationBody spec={spec.data} nutrients={new Map(nutrients.data.items.map((n) => [n.id, n]))} />;
+  return <SpecificationBody key={spec.data.id} spec={spec.data} nutrients={new Map(nutrients.data.items.map((n) => [n.id, n]))} adjust={adjust} />;
 }
 
 function capTarget(cap: SpecificationCap): string {
@@ -38,25 +40,25 @@ function capTarget(cap: SpecificationCap): string {
   return cap.insectSpecies ? `${INSECT_SPECIES_LABELS[cap.insectSpecies].split(' (')[0]} meals` : '';
 }
 
-function SpecificationBody({ spec, nutrients }: { spec: SpecificationDetail; nutrients: Map<string, Nutrient> }) {
+function SpecificationBody({ spec, nutrients, adjust }: { spec: SpecificationDetail; nutrients: Map<string, Nutrient>; adjust: boolean }) {
   const router = useRouter();
   const { can } = useActiveMembership();
-  const copy = useSpecificationCopyMutation();
-  const [editing, setEditing] = useState(false);
+  const [copying, setCopying] = useState(false);
   const writable = can('requirements:write');
+  const [editRequested, setEditing] = useState(adjust);
+  const editing = editRequested && spec.library === 'own' && writable;
   const name = (id: string) => nutrients.get(id)?.name ?? id;
 
   return (
     <Screen title={spec.name} lead={`${spec.species.name}${spec.phase ? ` · ${spec.phase.span ?? spec.phase.name}` : ''} · ${spec.library === 'reference' ? 'reference (read-only)' : 'ours'}`} testID="screen-specification">
       <View style={styles.actions}>
         <Button label="Back" tone="quiet" onPress={() => (router.canGoBack() ? router.back() : router.replace('/requirements'))} testID="back" />
-        {spec.library === 'reference' && writable ? (
-          <Button label={copy.isPending ? 'Copying…' : 'Copy and adjust'} disabled={copy.isPending} testID="spec-copy"
-            onPress={() => copy.mutate(spec.id, { onSuccess: (created) => router.replace(`/requirements/${created.id}`) })} />
+        {writable && !copying && !editing ? (
+          <Button label={spec.library === 'reference' ? 'Copy and adjust' : 'Copy into a phase'} tone={spec.library === 'reference' ? undefined : 'quiet'} onPress={() => setCopying(true)} testID="spec-copy" />
         ) : null}
-        {spec.library === 'own' && writable && !editing ? <Button label="Adjust bounds" onPress={() => setEditing(true)} testID="spec-edit" /> : null}
+        {spec.library === 'own' && writable && !editing && !copying ? <Button label="Adjust bounds" onPress={() => setEditing(true)} testID="spec-edit" /> : null}
       </View>
-      {copy.isError ? <FormMessage tone="danger" text={describeError(copy.error)} /> : null}
+      {copying ? <CopyIntoPhaseForm spec={spec} onCancel={() => setCopying(false)} /> : null}
       <AppText variant="small" muted testID="spec-source">Source: {spec.source}</AppText>
       {spec.notes ? <AppText>{spec.notes}</AppText> : null}
       {spec.feedIntakeGPerDay ? <AppText>Percentages assume a feed intake of {spec.feedIntakeGPerDay} g per animal per day.</AppText> : null}

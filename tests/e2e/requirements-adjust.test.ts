@@ -36,10 +36,7 @@ describe('adjusting a copied specification', () => {
     await page.goto(`${t.server.baseUrl}/requirements`);
     await page.locator('[data-testid^="spec-card-"]:visible', { hasText: 'Broiler starter' }).first().click();
     await visible(page, 'spec-copy').click();
-    // The copy keeps the starter's own phase unless another is chosen, and opens ready to adjust.
-    await visible(page, 'spec-copy-form').waitFor();
-    await visible(page, 'spec-copy-submit').click();
-    await visible(page, 'spec-bounds-form').waitFor();
+    await visible(page, 'spec-edit').click();
 
     // A cap above 100 % is refused with a message, and nothing is saved.
     await visible(page, 'cap-max-0').fill('140');
@@ -160,6 +157,7 @@ describe('adjusting a copied specification', () => {
     await page.locator('[data-testid="spec-start-copy-source-error"]:visible', { hasText: 'Choose the specification to start from.' }).waitFor();
     await visible(page, `spec-start-copy-source-${grower.id}`).click();
     await visible(page, 'spec-start-copy-chosen').waitFor();
+    await visible(page, 'spec-start-copy').screenshot({ path: join(TEST_OUTPUT, 'requirements-start-from-existing-phone.png') });
     await visible(page, 'spec-start-copy-name').fill('Broiler finisher from 35 days');
     await visible(page, 'spec-start-copy-submit').click();
 
@@ -183,7 +181,7 @@ describe('adjusting a copied specification', () => {
     await page.close();
   });
 
-  test('at 1280 px: the copy action of a specification offers the phases of poultry species only, grouped by species', async () => {
+  test('at 1280 px: “Copy into another phase” offers the phases of poultry species only, grouped by species, and opens the copy ready to adjust', async () => {
     const api = await signedInClient(t.server.baseUrl, EMAIL);
     const items = (await api.call('GET', '/api/specifications?library=reference&pageSize=200')).body.items;
     const grower = items.find((s: { name: string }) => s.name === 'Broiler grower, 3–6 weeks');
@@ -195,7 +193,7 @@ describe('adjusting a copied specification', () => {
     const page = await browser.newPage({ viewport: WIDE });
     await signInThroughForm(page, t.server.baseUrl, EMAIL, FIXTURE_PASSWORD);
     await page.goto(`${t.server.baseUrl}/requirements/${grower.id}`);
-    await visible(page, 'spec-copy').click();
+    await visible(page, 'spec-copy-to').click();
     await visible(page, `spec-copy-phase-group-${broiler.id}`).waitFor();
     assert.equal(await visible(page, `spec-copy-phase-${pigPhase.id}`).count(), 0, 'no pig phase for a poultry specification');
     await visible(page, `spec-copy-phase-${target.id}`).click();

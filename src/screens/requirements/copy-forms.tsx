@@ -96,12 +96,12 @@ export function CopyIntoPhaseForm({ spec, onCancel }: { spec: SpecificationDetai
             <AppText variant="small" muted>
               Every bound, ratio and inclusion cap is copied, with the studies it cites. Only {SPECIES_FAMILY_LABELS[family].toLowerCase()} phases are offered: {family === 'swine' ? 'pig bounds (NE, SID amino acids) do not fit a poultry diet' : 'poultry bounds (AMEn, total or digestible amino acids) do not fit a pig diet'}.
             </AppText>
-            <FormMessage tone="danger" text={formError} testID="spec-copy-error" />
+            <FormMessage tone="danger" text={formError} testID="spec-copy-form-error" />
             <GroupedChoice
               label="Phase of the copy"
               groups={groups}
               value={f.values.phaseId}
-              onChange={(v) => f.setValues({ phaseId: v, name: f.values.name.trim() === suggestedName(f.values.phaseId) ? suggestedName(v) : f.values.name })}
+              onChange={(v) => f.setValues({ phaseId: v, name: f.values.name.trim() === suggestedName(f.values.phaseId) ? suggestedName(v) : f.values.name }, f.submitCount > 0)}
               error={f.submitCount > 0 ? f.errors.phaseId : undefined}
               testID="spec-copy-phase"
             />
@@ -171,7 +171,7 @@ export function StartFromExisting({ species, phase }: { species: Species; phase:
             {groups.length === 0 ? (
               <AppText testID="spec-start-copy-none">No {SPECIES_FAMILY_LABELS[species.family].toLowerCase()} specification to start from yet: start an empty one.</AppText>
             ) : (
-              <GroupedChoice label="Start from" groups={groups} value={f.values.sourceId} onChange={(v) => f.setFieldValue('sourceId', v)} error={f.submitCount > 0 ? f.errors.sourceId : undefined} testID="spec-start-copy-source" />
+              <GroupedChoice label="Start from" groups={groups} value={f.values.sourceId} onChange={(v) => f.setFieldValue('sourceId', v, f.submitCount > 0)} error={f.submitCount > 0 ? f.errors.sourceId : undefined} testID="spec-start-copy-source" />
             )}
             {chosen ? <AppText variant="small" muted testID="spec-start-copy-chosen">{chosen.boundCount} nutrient bounds{chosen.phase ? `, set for ${phaseText(chosen.phase)}` : ''}. Source: {chosen.source}</AppText> : null}
             <TextField label="Name" value={f.values.name} onChangeText={f.handleChange('name')} error={f.submitCount > 0 ? f.errors.name : undefined} maxLength={160} testID="spec-start-copy-name" />

@@ -5,10 +5,10 @@ import { Formik, type FormikHelpers } from 'formik';
 import * as yup from 'yup';
 
 import { useNutrientsQuery } from '@/api/nutrients';
-import { useSpecificationQuery, useSpecificationUpdateMutation } from '@/api/requirements';
+import { useSpecificationCopyMutation, useSpecificationQuery, useSpecificationUpdateMutation } from '@/api/requirements';
 import { useActiveMembership } from '@/api/session';
 import { CautionBanner } from '@/components/caution-banner';
-import { ErrorState } from '@/components/error-state';
+import { describeError, ErrorState } from '@/components/error-state';
 import { FormMessage } from '@/components/form-message';
 import { Screen } from '@/components/screen';
 import { Button } from '@/components/ui/button';
@@ -43,6 +43,8 @@ function capTarget(cap: SpecificationCap): string {
 function SpecificationBody({ spec, nutrients, adjust }: { spec: SpecificationDetail; nutrients: Map<string, Nutrient>; adjust: boolean }) {
   const router = useRouter();
   const { can } = useActiveMembership();
+  /** One tap: a copy in the same phase. The form below chooses another phase and a name. */
+  const quickCopy = useSpecificationCopyMutation();
   const [copying, setCopying] = useState(false);
   const writable = can('requirements:write');
   const [editRequested, setEditing] = useState(adjust);
@@ -53,11 +55,14 @@ function SpecificationBody({ spec, nutrients, adjust }: { spec: SpecificationDet
     <Screen title={spec.name} lead={`${spec.species.name}${spec.phase ? ` · ${spec.phase.span ?? spec.phase.name}` : ''} · ${spec.library === 'reference' ? 'reference (read-only)' : 'ours'}`} testID="screen-specification">
       <View style={styles.actions}>
         <Button label="Back" tone="quiet" onPress={() => (router.canGoBack() ? router.back() : router.replace('/requirements'))} testID="back" />
-        {writable && !copying && !editing ? (
-          <Button label={spec.library === 'reference' ? 'Copy and adjust' : 'Copy into a phase'} tone={spec.library === 'reference' ? undefined : 'quiet'} onPress={() => setCopying(true)} testID="spec-copy" />
+        {spec.library === 'reference' && writable && !copying ? (
+          <Button label={quickCopy.isPending ? 'Copying…' : 'Copy and adjust'} disabled={quickCopy.isPending} testID="spec-copy"
+            onPress={() => quickCopy.mutate({ id: spec.id }, { onSuccess: (created) => router.replace(`/requirements/${created.id}`) })} />
         ) : null}
+        {writable && !copying && !editing ? <Button label="Copy into another phase…" tone="quiet" onPress={() => setCopying(true)} testID="spec-copy-to" /> : null}
         {spec.library === 'own' && writable && !editing && !copying ? <Button label="Adjust bounds" onPress={() => setEditing(true)} testID="spec-edit" /> : null}
       </View>
+      {quickCopy.isError ? <FormMessage tone="danger" text={describeError(quickCopy.error)} testID="spec-copy-error" /> : null}
       {copying ? <CopyIntoPhaseForm spec={spec} onCancel={() => setCopying(false)} /> : null}
       <AppText variant="small" muted testID="spec-source">Source: {spec.source}</AppText>
       {spec.notes ? <AppText>{spec.notes}</AppText> : null}

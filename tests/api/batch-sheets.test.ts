@@ -133,6 +133,26 @@ describe('batch sheets API', () => {
       }
       assert.ok(((await operator.call('GET', '/api/formulas/approved')).body as ApprovedFormula[]).some((a) => a.version.id === approvedId));
     });
+    test('a batch made on or before the archive day can still be logged; a later one is refused with who archived it and nothing is written', async () => {
+      const nutritionist = await signInAsDemo(app.server.baseUrl, 'nutritionist@tamsby.example');
+      const starter = ((await operator.call('GET', '/api/formulas/approved')).body as ApprovedFormula[]).find((a) => a.version.id === approvedId)!;
+      const archived = await nutritionist.call('POST', `/api/formulas/${starter.formulaId}/archive`);
+      assert.equal(archived.status, 200);
+      try {
+        const archiveDay = (archived.body as { archived: { at: string } }).archived.at.slice(0, 10);
+        const dayAfter = new Date(Date.parse(`${archiveDay}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
+        const before = (await app.database.db.select().from(batchLogs)).length;
+        const late = await operator.call('POST', '/api/batches', { versionId: approvedId, madeOn: dayAfter, batchSize: 1000, operatorName: 'PV' });
+        assert.equal(late.status, 409);
+        assert.equal(late.body.error.code, 'archived');
+        assert.match(late.body.error.message, new RegExp(`archived by .+ on ${archiveDay}.*restore`));
+        assert.equal((await app.database.db.select().from(batchLogs)).length, before, 'nothing written');
+        const onTheDay = await operator.call('POST', '/api/batches', { versionId: approvedId, madeOn: archiveDay, batchSize: 1000, operatorName: 'PV' });
+        assert.equal(onTheDay.status, 201);
+      } finally {
+        assert.equal((await nutritionist.call('POST', `/api/formulas/${starter.formulaId}/restore`)).status, 200);
+      }
+    });
   });
 
   describe('US units', () => {

@@ -127,6 +127,21 @@ describe('shares API', () => {
       }
     });
 
+    test('a version of an archived formula is not sent again until the formula is restored, and nothing is written', async () => {
+      const nutritionist = await signInAsDemo(app.server.baseUrl, 'nutritionist@tamsby.example');
+      assert.equal((await nutritionist.call('POST', `/api/formulas/${approved.formulaId}/archive`)).status, 200);
+      try {
+        const before = (await app.database.db.select().from(shares)).length;
+        const refused = await advisor.call('POST', '/api/shares', { kind: 'formula_version', formulaId: approved.formulaId, versionId: approved.version.id, toOrganizationId: orrinId });
+        assert.equal(refused.status, 409);
+        assert.equal(refused.body.error.code, 'archived');
+        assert.match(refused.body.error.message, /restore it first/);
+        assert.equal((await app.database.db.select().from(shares)).length, before);
+      } finally {
+        assert.equal((await nutritionist.call('POST', `/api/formulas/${approved.formulaId}/restore`)).status, 200);
+      }
+    });
+
     test('the farm lists what was shared with it', async () => {
       await farmer.call('PUT', '/api/auth/active-organization', { organizationId: orrinId });
       const list = (await farmer.call('GET', '/api/shares')).body as { token: string }[];

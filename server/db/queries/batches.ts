@@ -9,7 +9,7 @@ import type { BatchLogEntry, BatchSheetResponse, batchSheetQuery, recordBatchInp
 import { badRequest, HttpError } from '../../http/errors';
 import type { Db } from '../client';
 import { batchLogs, type BatchLogRow } from '../schema';
-import { getApprovedVersion } from './formulas';
+import { formulaArchival, getApprovedVersion } from './formulas';
 import { getMeasures } from './organization-settings';
 
 /** Default scale steps in the organization's unit: 0.5 kg / 1 lb on the main scale, 0.01 on the small one. */
@@ -89,6 +89,12 @@ export async function recordBatch(db: Db, organizationId: number, userId: string
   const version = await getApprovedVersion(db, organizationId, input.versionId);
   const { unitSystem } = await getMeasures(db, organizationId);
   if (input.madeOn > new Date(Date.now() + 36 * 3600_000).toISOString().slice(0, 10)) throw badRequest('madeOn: a batch cannot be made in the future', { madeOn: ['a batch cannot be made in the future'] });
+  // A batch mixed before the formula was archived may still be logged late; a later one means the mill is
+  // making a formula it retired, which a nutritionist has to restore first.
+  const archival = await formulaArchival(db, organizationId, version.formulaId);
+  if (archival && input.madeOn > archival.on) {
+    throw new HttpError(409, 'archived', `archived: “${archival.name}” was archived by ${archival.by} on ${archival.on}, so only batches made on or before that day can be recorded. Ask a nutritionist to restore it if the mill makes it again.`);
+  }
   const [{ id }] = await db
     .insert(batchLogs)
     .values({

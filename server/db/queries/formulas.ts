@@ -147,6 +147,16 @@ async function refuseArchived(db: Db, row: { name: string; archivedAt: Date | nu
   throw new HttpError(409, 'archived', `archived: restore it first. “${row.name}” was archived by ${who} on ${day(row.archivedAt)}; restore it to change, solve, keep or approve it.`);
 }
 
+/**
+ * Whether a formula is archived, and since when and by whom, for the routes outside this module that hand its
+ * versions on (recording a batch, sharing with a farm). Null when it is in use.
+ */
+export async function formulaArchival(db: Db, organizationId: number, formulaId: number): Promise<{ name: string; on: string; by: string } | null> {
+  const [row] = await db.select({ name: formulas.name, archivedAt: formulas.archivedAt, archivedBy: formulas.archivedBy }).from(formulas).where(and(eq(formulas.id, formulaId), eq(formulas.organizationId, organizationId)));
+  if (!row?.archivedAt) return null;
+  return { name: row.name, on: day(row.archivedAt), by: row.archivedBy ? await userName(db, row.archivedBy) : 'someone' };
+}
+
 /** Versions of some formulas, with each approval marked current (the newest approval) or superseded. */
 function summarizeVersions(rows: FormulaVersionRow[]): VersionSummary[] {
   const current = new Map<number, FormulaVersionRow>();

@@ -11,7 +11,7 @@ import type { Mailer } from '../../mail/mailer';
 import { sharedResultMail } from '../../mail/share-messages';
 import type { Db } from '../client';
 import { memberships, organizations, shares, users, type ShareRow } from '../schema';
-import { getVersion } from './formulas';
+import { formulaArchival, getVersion } from './formulas';
 import { getMeasures } from './organization-settings';
 import { runRationCheck } from './ration-checks';
 
@@ -96,6 +96,8 @@ export async function createShare(
 ): Promise<ShareCreated> {
   // Another organization's formula answers 404 before anything else is looked at.
   const v = input.kind === 'formula_version' ? await getVersion(db, who.organizationId, input.formulaId, input.versionId) : null;
+  const archival = v ? await formulaArchival(db, who.organizationId, v.formulaId) : null;
+  if (archival) throw new HttpError(409, 'archived', `archived: restore it first. “${archival.name}” was archived by ${archival.by} on ${archival.on}; a retired formula is not sent to farms. Links already sent keep working.`);
   const target = (await shareTargets(db, who.userId)).find((t) => t.id === input.toOrganizationId);
   if (!target) throw badRequest('toOrganizationId: you can share only with a farm you are a member of', { toOrganizationId: ['choose one of the farms you belong to (a farm adds you by invitation)'] });
   const farmMeasures = await getMeasures(db, target.id);

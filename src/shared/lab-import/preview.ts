@@ -104,11 +104,23 @@ export function readDate(raw: string): string | null {
   return date.toISOString().slice(0, 10);
 }
 
+/** Estimate-only inputs that became catalogue nutrients (the fibre fractions). */
+const NOW_NUTRIENTS: Record<string, string> = { 'aux:adf': 'adf', 'aux:ndf': 'ndf' };
+
+/**
+ * A lab's mapping saved before the catalogue kept NDF and ADF sent them to the estimate-only inputs; read it as
+ * the nutrient now, so the values are stored as well as used (the energy equations read either).
+ */
+function upToDate(mapping: FieldMapping | undefined, known: ReadonlySet<string>): FieldMapping | undefined {
+  const nutrient = mapping ? NOW_NUTRIENTS[mapping.target] : undefined;
+  return mapping && nutrient && known.has(nutrient) ? { ...mapping, target: nutrient } : mapping;
+}
+
 function resolveMappings(fields: LabField[], request: PreviewRequest, remembered: ColumnMapping | undefined, catalogue: readonly CatalogueNutrient[], samples: LabSample[]): PreviewField[] {
   const known = new Set(catalogue.map((n) => n.id));
   return fields.map((field) => {
     const suggestion = suggestField(field.key, known);
-    const chosen = request.mapping?.[field.key] ?? remembered?.[field.key];
+    const chosen = request.mapping?.[field.key] ?? upToDate(remembered?.[field.key], known);
     const target = chosen?.target ?? suggestion.target;
     const unitOfTarget = catalogue.find((n) => n.id === target)?.unit as SourceUnit | undefined;
     const mapping: FieldMapping = chosen

@@ -80,4 +80,20 @@ describe('ADF and NDF through the import', () => {
     close(valueOf(p, 'L', 'adf')?.asFed, (7.92 * 34.1) / 100, 1e-9, 'ADF as fed');
     close(valueOf(p, 'L', 'ndf')?.dryMatter, 13.0, 1e-9, 'aNDF on DM');
   });
+
+  test('a lab mapping remembered before the catalogue kept them is read as the nutrients; one chosen in this import is kept as chosen', () => {
+    const remembered = {
+      'NDF %': { target: 'aux:ndf' as const, unit: '%' as const, basis: 'as_fed' as const },
+      'ADF %': { target: 'aux:adf' as const, unit: '%' as const, basis: 'as_fed' as const },
+    };
+    const p = buildLabPreview(file, request, WITH_FIBRE, remembered);
+    assert.deepEqual(['NDF %', 'ADF %'].map((key) => p.fields.find((f) => f.key === key)?.mapping.target), ['ndf', 'adf']);
+    close(valueOf(p, 'W', 'adf')?.asFed, 3, 1e-9, 'ADF stored as fed');
+    // Without the fibre step the remembered targets still work as they did.
+    const old = buildLabPreview(file, request, CATALOGUE, remembered);
+    assert.deepEqual(['NDF %', 'ADF %'].map((key) => old.fields.find((f) => f.key === key)?.mapping.target), ['aux:ndf', 'aux:adf']);
+    // A choice made in this very import wins over the upgrade.
+    const chosen = buildLabPreview(file, { ...request, mapping: { 'ADF %': remembered['ADF %'] } }, WITH_FIBRE, remembered);
+    assert.equal(chosen.fields.find((f) => f.key === 'ADF %')?.mapping.target, 'aux:adf');
+  });
 });

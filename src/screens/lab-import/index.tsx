@@ -16,6 +16,7 @@ import { TextField } from '@/components/ui/text-field';
 import { AppText } from '@/components/ui/text';
 import { checkFileSize, parseCsvInChunks } from '@/shared/lab-import/csv';
 import { ESTIMATION_CLASSES } from '@/shared/lab-import/estimate';
+import { nutrientOfAux } from '@/shared/lab-import/words';
 import { AUX_TARGETS, SOURCE_UNITS, type ColumnMapping, type DecimalMark, type Delimiter, type LabIssue, type Layout, type ReportBasis, type SourceUnit } from '@/shared/lab-import/types';
 import { INGREDIENT_CATEGORIES, INGREDIENT_CATEGORY_LABELS, INSECT_PROCESSING, INSECT_PROCESSING_LABELS, INSECT_SPECIES, INSECT_SPECIES_LABELS, type IngredientCategory, type InsectProcessing, type InsectSpecies } from '@/shared/library-terms';
 import type { CommitLabImportInput, LabImportPreviewResponse, LabImportResult } from '@/shared/schemas/lab-imports';
@@ -36,7 +37,7 @@ const today = () => new Date().toISOString().slice(0, 10);
  * nutrient is the one choice (a lab's remembered mapping to the old target still shows, so it can be changed).
  */
 function supersededAux(target: string, preview: LabImportPreviewResponse, mapping: ColumnMapping | undefined): boolean {
-  const nutrient = target === 'aux:adf' ? 'adf' : target === 'aux:ndf' ? 'ndf' : null;
+  const nutrient = nutrientOfAux(target);
   if (!nutrient || !preview.catalogue.some((n) => n.id === nutrient)) return false;
   return !preview.fields.some((field) => (mapping?.[field.key] ?? field.mapping).target === target);
 }

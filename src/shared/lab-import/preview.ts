@@ -25,7 +25,7 @@ import {
   type ReportBasis,
   type SourceUnit,
 } from './types';
-import { suggestField, type Suggestion } from './words';
+import { nutrientOfAux, suggestField, type Suggestion } from './words';
 
 export type PreviewRequest = CsvOptions & {
   layout?: Layout | 'auto';
@@ -104,15 +104,12 @@ export function readDate(raw: string): string | null {
   return date.toISOString().slice(0, 10);
 }
 
-/** Estimate-only inputs that became catalogue nutrients (the fibre fractions). */
-const NOW_NUTRIENTS: Record<string, string> = { 'aux:adf': 'adf', 'aux:ndf': 'ndf' };
-
 /**
  * A lab's mapping saved before the catalogue kept NDF and ADF sent them to the estimate-only inputs; read it as
  * the nutrient now, so the values are stored as well as used (the energy equations read either).
  */
 function upToDate(mapping: FieldMapping | undefined, known: ReadonlySet<string>): FieldMapping | undefined {
-  const nutrient = mapping ? NOW_NUTRIENTS[mapping.target] : undefined;
+  const nutrient = mapping ? nutrientOfAux(mapping.target) : null;
   return mapping && nutrient && known.has(nutrient) ? { ...mapping, target: nutrient } : mapping;
 }
 

@@ -116,6 +116,11 @@ export type Suggestion = { target: FieldTargetId; unit: SourceUnit | null; basis
  */
 const AUX_WHEN_NOT_IN_CATALOGUE: Record<string, FieldTargetId> = { adf: 'aux:adf', ndf: 'aux:ndf' };
 
+/** The catalogue nutrient an estimate-only input stands for (`aux:adf` → `adf`), or null when it has none. */
+export function nutrientOfAux(target: string): string | null {
+  return Object.entries(AUX_WHEN_NOT_IN_CATALOGUE).find(([, aux]) => aux === target)?.[0] ?? null;
+}
+
 /**
  * Suggests what a header (or row label) is.
  * @param label the field as the lab wrote it
